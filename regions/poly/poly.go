@@ -187,6 +187,9 @@ func (p Poly) Roots() ([]complex128, error) {
 	if n == 0 {
 		return nil, nil
 	}
+	if !p.Finite() {
+		return nil, fmt.Errorf("poly: roots of a polynomial with non-finite coefficients")
+	}
 	lead := p[n]
 	c := mat.NewDense(n, n, nil)
 	for j := 0; j < n; j++ {

@@ -1,0 +1,350 @@
+package routh
+
+import (
+	"fmt"
+	"math"
+	"math/cmplx"
+	"sort"
+	"strconv"
+
+	"gainscape/regions/poly"
+)
+
+// Row is one row of the sign array as Analyze reports it.
+type Row struct {
+	// Power is k for the row labelled s^k.
+	Power int
+	// Entries are the row's entries as ε → 0+, formatted: "2.5", "ε",
+	// "-4/ε", "3·ε²". Leading orders are shown, which fix every sign.
+	Entries []string
+	// Values are the lowest-order coefficients of the entries (the numbers
+	// in Entries without their power of ε).
+	Values []float64
+	// Orders are the powers of ε of the entries (0 for plain numbers).
+	Orders []int
+	// Sign is the sign of the first entry as ε → 0+ (+1 or −1).
+	Sign int
+	// Epsilon is set when the first entry was zero in a non-zero row and
+	// was replaced by ε (the ε rule).
+	Epsilon bool
+	// Auxiliary is set when the row was all zero and was replaced by the
+	// coefficients of the derivative of the auxiliary polynomial Aux,
+	// formed from the row above.
+	Auxiliary bool
+	Aux       poly.Poly
+}
+
+// Report is the full result of the sign-array test.
+type Report struct {
+	// Poly is the polynomial tested, after removing the leading
+	// coefficients that vanish and the factor s^ZeroRoots.
+	Poly poly.Poly
+	// Degree is the degree of the polynomial given, before removals.
+	Degree int
+	// DegreeDrop counts leading coefficients that vanish relative to the
+	// largest: roots that have gone to infinity.
+	DegreeDrop int
+	// ZeroRoots counts roots at s = 0.
+	ZeroRoots int
+	Rows      []Row
+	// RHP is the number of roots in the open right half plane: the sign
+	// changes in the first column.
+	RHP int
+	// JW is the number of roots on the imaginary axis, s = 0 included,
+	// counted with multiplicity.
+	JW int
+	// Omegas lists the distinct frequencies ω ≥ 0 of the imaginary-axis
+	// roots ±jω, ascending.
+	Omegas []float64
+	// Aux is the first auxiliary polynomial met (nil if none); its roots
+	// include every imaginary-axis root other than those at s = 0.
+	Aux poly.Poly
+	// UsedEpsilon and UsedAux say which special cases occurred.
+	UsedEpsilon, UsedAux bool
+	// Undecided is set when the test cannot give a count (Reason says why).
+	Undecided bool
+	Reason    string
+}
+
+// Stable reports whether every root is in the open left half plane.
+func (r Report) Stable() bool { return !r.Undecided && r.RHP == 0 && r.JW == 0 && r.DegreeDrop == 0 }
+
+// Analyze runs the complete sign-array test on p (ascending coefficients).
+// Coefficients are compared with InputTol relative to the largest one;
+// computed entries are tested by stochastic arithmetic (see samples).
+// The ε rule is exact in the limit when the polynomial has no
+// imaginary-axis roots; when it does, they reveal themselves as an
+// all-zero row, which the auxiliary polynomial resolves.
+func Analyze(p poly.Poly) Report {
+	rep := Report{Degree: len(p) - 1}
+	if len(p) == 0 || !p.Finite() {
+		rep.Undecided, rep.Reason = true, "coefficients are not finite numbers"
+		return rep
+	}
+	scale := p.Scale()
+	if scale == 0 {
+		rep.Undecided, rep.Reason = true, "every coefficient is zero"
+		return rep
+	}
+	lim := InputTol * scale
+	hi := len(p) - 1
+	for math.Abs(p[hi]) <= lim {
+		hi--
+	}
+	rep.DegreeDrop = len(p) - 1 - hi
+	lo := 0
+	for math.Abs(p[lo]) <= lim {
+		lo++
+	}
+	rep.ZeroRoots = lo
+	q := p[lo : hi+1].Clone()
+	rep.Poly = q
+	rep.Degree = len(p) - 1
+	m := len(q) - 1
+	if m <= 0 {
+		rep.JW = rep.ZeroRoots
+		if rep.ZeroRoots > 0 {
+			rep.Omegas = []float64{0}
+		}
+		return rep
+	}
+
+	ar := arith{terms: 3*m + 8}
+	w := m/2 + 1
+	rows := make([][]series, 0, m+1)
+	for r := 0; r < 2; r++ {
+		row := make([]series, w)
+		for j := range row {
+			if i := m - r - 2*j; i >= 0 {
+				row[j] = ar.monomial(perturb(q[i], i, scale), 0)
+			} else {
+				row[j] = ar.zero()
+			}
+		}
+		rows = append(rows, row)
+	}
+	auxRow := -1
+	var aux poly.Poly
+	flags := make([]Row, m+1)
+	for k := 1; k <= m; k++ {
+		if k >= 2 {
+			a, b := rows[k-2], rows[k-1]
+			ratio := ar.div(a[0], b[0])
+			next := make([]series, w)
+			for j := 0; j < w; j++ {
+				if j+1 < w {
+					next[j] = ar.sub(a[j+1], ar.mul(ratio, b[j+1]))
+				} else {
+					next[j] = ar.zero()
+				}
+			}
+			rows = append(rows, next)
+		}
+		row := rows[k]
+		power := m - k
+		if allZero(row) {
+			// All-zero row: the row above holds the auxiliary polynomial
+			// A(s) = Σ α_j s^(power+1−2j), an even or odd factor of q whose
+			// roots are symmetric about both axes.
+			above := rows[k-1]
+			order := math.MaxInt
+			for _, e := range above {
+				if !e.isZero() {
+					_, o := e.lead()
+					order = min(order, o)
+				}
+			}
+			a := make(poly.Poly, power+2)
+			for j, e := range above {
+				if d := power + 1 - 2*j; d >= 0 {
+					v := e.at(order)
+					a[d] = v.mean()
+					if d >= 1 && j < len(row) {
+						for s := range v {
+							v[s] *= float64(d)
+						}
+						row[j] = ar.monomial(v, order)
+					}
+				}
+			}
+			flags[k].Auxiliary, flags[k].Aux = true, a
+			if auxRow < 0 {
+				auxRow, aux = k-1, a
+			}
+			rep.UsedAux = true
+		}
+		if row[0].isZero() {
+			// ε rule: a zero pivot in a non-zero row becomes ε times the
+			// row's own size, and the limit ε → 0+ is carried by the series.
+			order, size := math.MaxInt, 0.0
+			for _, e := range row {
+				if v, o := e.lead(); v != 0 && o <= order {
+					if o < order {
+						size = 0
+					}
+					order, size = o, math.Max(size, math.Abs(v))
+				}
+			}
+			row[0] = ar.monomial(samples{size, size, size}, order+1)
+			flags[k].Epsilon = true
+			rep.UsedEpsilon = true
+		}
+	}
+
+	prev := rows[0][0].sign()
+	changes := make([]int, m+1) // changes[k]: sign changes between rows k-1 and k
+	for k := 1; k <= m; k++ {
+		s := rows[k][0].sign()
+		if s != prev {
+			changes[k] = 1
+			rep.RHP++
+		}
+		prev = s
+	}
+	for k, row := range rows {
+		f := flags[k]
+		f.Power = m - k
+		f.Sign = row[0].sign()
+		for _, e := range row[:rowWidth(m, k, w)] {
+			v, o := e.lead()
+			f.Values = append(f.Values, v)
+			f.Orders = append(f.Orders, o)
+			f.Entries = append(f.Entries, formatTerm(v, o))
+		}
+		rep.Rows = append(rep.Rows, f)
+	}
+
+	rep.JW = rep.ZeroRoots
+	if auxRow >= 0 {
+		rep.Aux = aux
+		below := 0
+		for k := auxRow + 1; k <= m; k++ {
+			below += changes[k]
+		}
+		rep.JW += len(aux) - 1 - 2*below
+		rep.Omegas = axisFrequencies(aux, q, (len(aux)-1-2*below)/2)
+	}
+	if rep.ZeroRoots > 0 {
+		rep.Omegas = append([]float64{0}, rep.Omegas...)
+	}
+	return rep
+}
+
+// perturb returns the three CESTAC samples of input coefficient v (the
+// coefficient of s^i): v itself and two copies moved by up to perturbSize
+// times the largest coefficient, scale. A characteristic polynomial is
+// formed by sums of products, so each coefficient carries rounding of the
+// size of the largest terms, not of itself; the perturbation is a few
+// hundred units in the last place of those, enough to dominate the
+// rounding of the array itself so that the spread of the samples measures
+// sensitivity. The pattern is a fixed function of i, so results are
+// reproducible.
+func perturb(v float64, i int, scale float64) samples {
+	d := perturbSize * scale
+	// Two fixed pseudo-random factors in [0.5, 1) with signs, from i.
+	h := uint32(i)*2654435761 + 12345
+	f1 := 0.5 + float64(h>>24)/512
+	f2 := 0.5 + float64((h>>16)&0xff)/512
+	if h&1 == 0 {
+		f1 = -f1
+	}
+	if h&2 == 0 {
+		f2 = -f2
+	}
+	return samples{v, v + f1*d, v + f2*d}
+}
+
+// perturbSize is the relative size of the CESTAC input perturbation, 2^-44
+// (about 5.7e-14), below InputTol so that perturbed coefficients keep
+// their zero pattern.
+const perturbSize = 0x1p-44
+
+// rowWidth is the number of meaningful entries in row k of a degree-m array.
+func rowWidth(m, k, w int) int {
+	n := (m-k)/2 + 1
+	return min(n, w)
+}
+
+func allZero(row []series) bool {
+	for _, e := range row {
+		if !e.isZero() {
+			return false
+		}
+	}
+	return true
+}
+
+// axisFrequencies returns the distinct frequencies, ascending, of the
+// imaginary-axis pairs of the auxiliary polynomial a. How many pairs there
+// are comes from the sign array; their values come from the roots of a
+// (gonum eigenvalues), taking the 2·pairs roots nearest the axis, each
+// polished by Newton's method on the whole polynomial q, of which a is a
+// factor, because rows far down an ill-conditioned array carry rounding
+// that the original coefficients do not.
+func axisFrequencies(a, q poly.Poly, pairs int) []float64 {
+	if pairs <= 0 {
+		return nil
+	}
+	roots, err := a.Roots()
+	if err != nil {
+		return nil
+	}
+	sort.Slice(roots, func(i, j int) bool {
+		return math.Abs(real(roots[i])) < math.Abs(real(roots[j]))
+	})
+	om := make([]float64, 0, 2*pairs)
+	dq := q.Derivative()
+	for _, r := range roots[:min(len(roots), 2*pairs)] {
+		om = append(om, math.Abs(imag(polish(q, dq, r))))
+	}
+	sort.Float64s(om)
+	// Repeated pairs appear once; roots of a repeated factor are found to
+	// about the square root of machine precision, hence the tolerance.
+	out := om[:0]
+	for _, v := range om {
+		if len(out) == 0 || v-out[len(out)-1] > 1e-6*math.Max(1, v) {
+			out = append(out, v)
+		}
+	}
+	return out
+}
+
+// polish improves an approximate root r of q by Newton's method, keeping r
+// if an iteration fails to reduce |q|.
+func polish(q, dq poly.Poly, r complex128) complex128 {
+	best := cmplx.Abs(q.Eval(r))
+	for it := 0; it < 8 && best > 0; it++ {
+		d := dq.Eval(r)
+		if d == 0 {
+			break
+		}
+		next := r - q.Eval(r)/d
+		v := cmplx.Abs(q.Eval(next))
+		if !(v < best) {
+			break
+		}
+		r, best = next, v
+	}
+	return r
+}
+
+// formatTerm writes v·ε^o compactly for reports.
+func formatTerm(v float64, o int) string {
+	num := strconv.FormatFloat(v, 'g', 6, 64)
+	switch {
+	case v == 0:
+		return "0"
+	case o == 0:
+		return num
+	case o == 1 && v == 1:
+		return "ε"
+	case o == 1:
+		return num + "·ε"
+	case o == -1:
+		return num + "/ε"
+	case o > 0:
+		return fmt.Sprintf("%s·ε^%d", num, o)
+	default:
+		return fmt.Sprintf("%s/ε^%d", num, -o)
+	}
+}

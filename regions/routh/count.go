@@ -1,0 +1,152 @@
+// Package routh implements the Routh sign-array test: the number of roots
+// of a real polynomial in the open right half plane, and the roots on the
+// imaginary axis, without computing any root.
+//
+// Method: E. J. Routh, "A Treatise on the Stability of a Given State of
+// Motion" (1877), in the tabular form found in control textbooks (e.g.
+// K. Ogata, Modern Control Engineering, 5th ed., Sec. 5-6; N. S. Nise,
+// Control Systems Engineering, Ch. 6). The number of sign changes in the
+// first column equals the number of right-half-plane roots.
+//
+// Count is the fast path for grids: it allocates nothing and handles the
+// regular case, a degree drop being flagged and zero roots factored out.
+// Analyze handles everything, including the two special cases: a zero
+// first-column entry in a non-zero row (the ε rule, with the limit ε → 0+
+// taken by carrying every entry as a truncated Laurent series in ε), and an
+// all-zero row (replaced by the derivative of the auxiliary polynomial
+// formed from the row above, whose roots are the imaginary-axis roots).
+package routh
+
+import "math"
+
+// InputTol is the relative size below which a coefficient of the input
+// polynomial is taken to be zero: at most InputTol times the largest
+// coefficient. It allows for the rounding of forming the characteristic
+// polynomial from plant and controller (a few units in the last place of
+// the largest term) with a wide margin.
+const InputTol = 1e-13
+
+// unit is the unit roundoff of float64, 2^-53.
+const unit = 0x1p-53
+
+// Entries computed inside the array are tested against a running bound on
+// their rounding error (J. H. Wilkinson's running error analysis, as in
+// N. J. Higham, Accuracy and Stability of Numerical Algorithms, 2nd ed.,
+// Sec. 3.3): each entry a − r·b carries a bound built from the bounds of
+// a, r and b plus the rounding of the operation itself, and an entry no
+// larger than its bound is zero. Input coefficients start with a bound of
+// a few units in the last place of themselves. This makes every zero test
+// relative to the scale of what produced the entry, however the
+// coefficients are scaled.
+const inputUlps = 4
+
+// Status says how far Count got.
+type Status int8
+
+const (
+	// Decided: the count is exact for the regular case.
+	Decided Status = iota
+	// NeedsAnalysis: a special case occurred (a zero first-column entry, an
+	// all-zero row or a vanishing leading coefficient); call Analyze.
+	NeedsAnalysis
+	// Undecidable: the coefficients are not finite, all zero, or overflow
+	// the array; no count can be trusted.
+	Undecidable
+)
+
+// WorkLen returns the scratch length Count needs for polynomials with up to
+// n+1 coefficients.
+func WorkLen(n int) int { return 4 * (n/2 + 2) }
+
+// Count returns the number of right-half-plane roots of p (ascending
+// coefficients) and the number of roots at s = 0, using work (length at
+// least WorkLen(len(p)-1)) as scratch. It does not allocate. When the
+// status is not Decided the counts are meaningless.
+func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
+	n := len(p) - 1
+	if n < 0 {
+		return 0, 0, Undecidable
+	}
+	scale := 0.0
+	for _, v := range p {
+		a := math.Abs(v)
+		if !(a <= math.MaxFloat64) {
+			return 0, 0, Undecidable
+		}
+		if a > scale {
+			scale = a
+		}
+	}
+	if scale == 0 {
+		return 0, 0, Undecidable
+	}
+	lim := InputTol * scale
+	if math.Abs(p[n]) <= lim {
+		return 0, 0, NeedsAnalysis
+	}
+	lo := 0
+	for math.Abs(p[lo]) <= lim {
+		lo++
+	}
+	q := p[lo:]
+	m := n - lo
+	if m == 0 {
+		return 0, lo, Decided
+	}
+	w := m/2 + 1
+	a, b := work[:w], work[w:2*w]
+	ea, eb := work[2*w:3*w], work[3*w:4*w]
+	for j := 0; j < w; j++ {
+		a[j], b[j] = 0, 0
+		if i := m - 2*j; i >= 0 {
+			a[j] = q[i]
+		}
+		if i := m - 1 - 2*j; i >= 0 {
+			b[j] = q[i]
+		}
+		ea[j] = inputUlps * unit * math.Abs(a[j])
+		eb[j] = inputUlps * unit * math.Abs(b[j])
+	}
+	prevNeg := a[0] < 0
+	for k := 1; k <= m; k++ {
+		// b holds row s^(m-k); its first entry is the pivot.
+		if b[0] == 0 {
+			return 0, 0, NeedsAnalysis
+		}
+		neg := b[0] < 0
+		if neg != prevNeg {
+			rhp++
+		}
+		prevNeg = neg
+		if k == m {
+			break
+		}
+		// Next row, in place over a: a[j] = a[j+1] − r·b[j+1], r = a[0]/b[0],
+		// with error bounds carried alongside. Row s^(m-k-1) has
+		// (m-k-1)/2 + 1 meaningful entries; the rest stay zero.
+		inv := 1 / b[0]
+		r := a[0] * inv
+		absR := math.Abs(r)
+		er := (ea[0]+absR*eb[0])*math.Abs(inv) + 2*unit*absR
+		width := (m-k-1)/2 + 1
+		an, ean := a[1:width+1], ea[1:width+1]
+		bn, ebn := b[1:width+1], eb[1:width+1]
+		for j := range an {
+			x, y := an[j], bn[j]
+			ry := r * y
+			d := x - ry
+			e := ean[j] + absR*ebn[j] + math.Abs(y)*er + unit*(math.Abs(x)+2*math.Abs(ry))
+			if math.Abs(d) <= e {
+				d = 0
+			}
+			a[j], ea[j] = d, e
+		}
+		a[width], ea[width] = 0, 0
+		if !(math.Abs(a[0]) <= math.MaxFloat64) || !(ea[0] <= math.MaxFloat64) {
+			return 0, 0, Undecidable
+		}
+		a, b = b, a
+		ea, eb = eb, ea
+	}
+	return rhp, lo, Decided
+}

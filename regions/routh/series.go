@@ -1,0 +1,185 @@
+package routh
+
+import "math"
+
+// samples is one quantity computed three times from slightly perturbed
+// inputs. Their spread estimates how many of its digits are meaningful:
+// the CESTAC method of stochastic arithmetic (J. Vignes, "Discrete
+// stochastic arithmetic for validating results of numerical software",
+// Numerical Algorithms 37, 2004). A quantity whose mean is within its
+// confidence half-width of zero is a computational zero. Every operation
+// is applied to each sample alike, and every zero decision is taken once
+// for all three, so the three computations follow the same branches.
+type samples [3]float64
+
+// studentT is Student's t for two degrees of freedom at 95%, the value
+// CESTAC uses with three samples.
+const studentT = 4.303
+
+func (x samples) mean() float64 { return (x[0] + x[1] + x[2]) / 3 }
+
+// isZero reports whether x is a computational zero.
+func (x samples) isZero() bool {
+	m := x.mean()
+	if m == 0 {
+		return true
+	}
+	// Scaled by the largest deviation so that squares cannot underflow.
+	dev := 0.0
+	for _, v := range x {
+		dev = math.Max(dev, math.Abs(v-m))
+	}
+	if dev == 0 {
+		return false
+	}
+	var ss float64
+	for _, v := range x {
+		ss += ((v - m) / dev) * ((v - m) / dev)
+	}
+	sd := dev * math.Sqrt(ss/2)
+	return math.Abs(m) <= studentT*sd/math.Sqrt(3)
+}
+
+// series is a truncated Laurent series in ε: Σ c[i]·ε^(lo+i). It carries
+// the entries of the sign array once the ε rule has been applied, so that
+// the sign of every first-column entry is read off as ε → 0+ exactly (the
+// sign of its lowest-order non-zero term) instead of by substituting one
+// small number.
+type series struct {
+	lo int
+	c  []samples
+}
+
+// arith does series arithmetic with a fixed number of kept terms, set by
+// Analyze from the degree so that cancelled leading orders cannot exhaust it.
+type arith struct{ terms int }
+
+func (ar arith) zero() series { return series{c: make([]samples, ar.terms)} }
+
+// monomial returns v·ε^order.
+func (ar arith) monomial(v samples, order int) series {
+	s := ar.zero()
+	s.c[0], s.lo = v, order
+	return ar.norm(s)
+}
+
+func (s series) isZero() bool {
+	for _, v := range s.c {
+		if v != (samples{}) {
+			return false
+		}
+	}
+	return true
+}
+
+// sign is the sign of s as ε → 0+.
+func (s series) sign() int {
+	v, _ := s.lead()
+	switch {
+	case v > 0:
+		return 1
+	case v < 0:
+		return -1
+	}
+	return 0
+}
+
+// lead returns the mean of the lowest-order non-zero coefficient and its
+// order.
+func (s series) lead() (float64, int) {
+	for i, v := range s.c {
+		if v != (samples{}) {
+			return v.mean(), s.lo + i
+		}
+	}
+	return 0, 0
+}
+
+// at returns the coefficient of ε^k.
+func (s series) at(k int) samples {
+	i := k - s.lo
+	if i < 0 || i >= len(s.c) {
+		return samples{}
+	}
+	return s.c[i]
+}
+
+// norm clears computational zeros and shifts s so that c[0] is its
+// lowest non-zero term.
+func (ar arith) norm(s series) series {
+	for i, v := range s.c {
+		if v.isZero() {
+			s.c[i] = samples{}
+		}
+	}
+	f := 0
+	for f < len(s.c) && s.c[f] == (samples{}) {
+		f++
+	}
+	if f == len(s.c) {
+		s.lo = 0
+		return s
+	}
+	if f > 0 {
+		copy(s.c, s.c[f:])
+		clear(s.c[len(s.c)-f:])
+		s.lo += f
+	}
+	return s
+}
+
+func (ar arith) sub(a, b series) series {
+	lo := min(a.lo, b.lo)
+	if a.isZero() {
+		lo = b.lo
+	} else if b.isZero() {
+		lo = a.lo
+	}
+	r := ar.zero()
+	r.lo = lo
+	for i := range r.c {
+		x, y := a.at(lo+i), b.at(lo+i)
+		for k := range x {
+			r.c[i][k] = x[k] - y[k]
+		}
+	}
+	return ar.norm(r)
+}
+
+func (ar arith) mul(a, b series) series {
+	r := ar.zero()
+	if a.isZero() || b.isZero() {
+		return r
+	}
+	r.lo = a.lo + b.lo
+	for n := range r.c {
+		for i := 0; i <= n; i++ {
+			x, y := a.c[i], b.c[n-i]
+			for k := range x {
+				r.c[n][k] += x[k] * y[k]
+			}
+		}
+	}
+	return ar.norm(r)
+}
+
+// div returns a/b by long division of series; b must not be zero.
+func (ar arith) div(a, b series) series {
+	r := ar.zero()
+	if a.isZero() {
+		return r
+	}
+	r.lo = a.lo - b.lo
+	for n := range r.c {
+		v := a.c[n]
+		for j := 1; j <= n; j++ {
+			for k := range v {
+				v[k] -= b.c[j][k] * r.c[n-j][k]
+			}
+		}
+		for k := range v {
+			r.c[n][k] = v[k] / b.c[0][k]
+		}
+	}
+	return ar.norm(r)
+}

@@ -1,0 +1,251 @@
+package render
+
+import (
+	"math"
+	"sort"
+	"strconv"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/text"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"gainscape/regions/boundary"
+)
+
+// Label spacing along complex-root curves, the retry step when a
+// candidate is blocked, and the padding of label boxes, in canvas units.
+const (
+	omegaSpacing = vg.Length(100)
+	omegaStep    = vg.Length(4)
+	labelPad     = vg.Length(1.2) // background around the text
+	labelGap     = vg.Length(1.5) // clear space kept between labels
+	markRadius   = vg.Length(3.4)
+	markClear    = markRadius + 1.5 // half the side of the box a symbol claims
+)
+
+// annotations is the plotter that writes every label on the map and
+// draws the design points and the frame. It runs last, when the data
+// area is known, so labels can be placed in canvas units.
+type annotations struct {
+	fig *Figure
+	iso []isoSet
+}
+
+// isoSet is a contour set with its traced lines.
+type isoSet struct {
+	name   string
+	levels []isoLevel
+}
+
+// isoLevel is one level of a contour set and its lines in data units.
+type isoLevel struct {
+	level float64
+	lines []plotter.XYs
+}
+
+// drawnLabel is a placed label ready to be drawn.
+type drawnLabel struct {
+	text  string
+	at    vg.Point
+	style text.Style
+	bg    vg.Rectangle
+}
+
+// Plot places and draws marks, ω labels and contour labels.
+func (a annotations) Plot(c draw.Canvas, plt *plot.Plot) {
+	trX, trY := plt.Transforms(&c)
+	pl := &placer{area: c.Rectangle}
+	marks, labels := a.placeMarks(pl, c, trX, trY)
+	labels = append(labels, a.placeOmegaLabels(pl, trX, trY)...)
+	labels = append(labels, a.placeIsoLabels(pl, trX, trY)...)
+
+	for _, l := range labels {
+		c.FillPolygon(haloColour, rectPoints(l.bg))
+		c.FillText(l.style, l.at, l.text)
+	}
+	for _, pt := range marks {
+		drawMark(c, pt)
+	}
+	c.StrokeLines(draw.LineStyle{Color: inkColour, Width: 0.8}, rectPoints(c.Rectangle))
+}
+
+// transform maps data units to canvas units along one axis.
+type transform = func(float64) vg.Length
+
+// placeMarks reserves the symbols of the marks inside the plot and then
+// places their labels. It returns the symbol positions and the labels.
+func (a annotations) placeMarks(pl *placer, c draw.Canvas, trX, trY transform) ([]vg.Point, []drawnLabel) {
+	var marks []vg.Point
+	var labels []drawnLabel
+	for _, m := range a.fig.Marks {
+		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
+		if c.Contains(pt) {
+			marks = append(marks, pt)
+			pl.block(grow(vg.Rectangle{Min: pt, Max: pt}, markClear))
+		}
+	}
+	for _, m := range a.fig.Marks {
+		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
+		if m.Label != "" && c.Contains(pt) {
+			labels = append(labels, placeMarkLabel(pl, pt, m.Label))
+		}
+	}
+	return marks, labels
+}
+
+// placeOmegaLabels writes ω along every complex-pair edge at intervals
+// of omegaSpacing (at least once where there is room), and "ω=0" once on
+// every real-root edge.
+func (a annotations) placeOmegaLabels(pl *placer, trX, trY transform) []drawnLabel {
+	style := centredStyle(labelSize, inkColour)
+	box := func(pt vg.Point, w float64) (vg.Rectangle, bool) {
+		if !finite(w) {
+			return vg.Rectangle{}, false
+		}
+		return labelBox(style, formatOmega(w), pt), true
+	}
+	zeroBox := func(pt vg.Point, _ float64) (vg.Rectangle, bool) { return box(pt, 0) }
+	inf := vg.Length(math.Inf(1))
+	var labels []drawnLabel
+	for _, cv := range a.fig.Curves {
+		for _, piece := range finitePieces(cv.Points) {
+			path := canvasPath(piece, trX, trY)
+			switch cv.Kind {
+			case boundary.Complex:
+				sites := pl.along(path, omegaSpacing*0.45, omegaSpacing, omegaStep, box)
+				if len(sites) == 0 {
+					// A short edge still gets one label if it has room.
+					sites = pl.along(path, omegaStep, inf, omegaStep, box)
+				}
+				labels = append(labels, toLabels(sites, style, formatOmega)...)
+			case boundary.Real:
+				sites := pl.along(path, pathLength(path)/2, inf, omegaStep, zeroBox)
+				if len(sites) == 0 {
+					sites = pl.along(path, omegaStep, inf, omegaStep, zeroBox)
+				}
+				labels = append(labels, toLabels(sites, style, func(float64) string { return formatOmega(0) })...)
+			}
+		}
+	}
+	return labels
+}
+
+// placeIsoLabels writes "Name=level" on the lines of every contour set.
+func (a annotations) placeIsoLabels(pl *placer, trX, trY transform) []drawnLabel {
+	style := centredStyle(labelSize, contourColour)
+	var labels []drawnLabel
+	for _, set := range a.iso {
+		for _, lv := range set.levels {
+			txt := set.name + "=" + formatNumber(lv.level)
+			sites := placeOnLines(pl, lv.lines, trX, trY, func(pt vg.Point, _ float64) (vg.Rectangle, bool) {
+				return labelBox(style, txt, pt), true
+			})
+			labels = append(labels, toLabels(sites, style, func(float64) string { return txt })...)
+		}
+	}
+	return labels
+}
+
+// toLabels turns placed sites into labels with the given style and text.
+func toLabels(sites []site, style text.Style, format func(float64) string) []drawnLabel {
+	out := make([]drawnLabel, len(sites))
+	for i, s := range sites {
+		out[i] = drawnLabel{text: format(s.Value), at: s.At, style: style, bg: grow(s.Box, -labelGap)}
+	}
+	return out
+}
+
+// placeOnLines labels one level of a contour set at one or two places:
+// on its longest line that takes a label, at a quarter and three quarters
+// of its length if it is long, else at its middle.
+func placeOnLines(pl *placer, lines []plotter.XYs, trX, trY transform, boxAt boxFunc) []site {
+	paths := make([][]pathPoint, len(lines))
+	for i, l := range lines {
+		paths[i] = make([]pathPoint, len(l))
+		for k, p := range l {
+			paths[i][k] = pathPoint{At: vg.Point{X: trX(p.X), Y: trY(p.Y)}}
+		}
+	}
+	sort.SliceStable(paths, func(i, j int) bool { return pathLength(paths[i]) > pathLength(paths[j]) })
+	probe, _ := boxAt(vg.Point{}, 0)
+	inf := vg.Length(math.Inf(1))
+	for _, path := range paths {
+		l := pathLength(path)
+		var sites []site
+		if l > 6*probe.Size().X {
+			sites = pl.along(path, l/4, l/2, omegaStep, boxAt)
+		} else {
+			sites = pl.along(path, l/2, inf, omegaStep, boxAt)
+		}
+		if len(sites) > 0 {
+			return sites
+		}
+	}
+	return nil
+}
+
+// formatOmega writes a frequency with three significant digits, keeping
+// trailing zeros so neighbouring labels read alike: "ω=1.83", "ω=0.700",
+// "ω=12.5"; very large or small values use an exponent.
+func formatOmega(w float64) string {
+	a := math.Abs(w)
+	switch {
+	case w == 0:
+		return "ω=0"
+	case a >= 1e4 || a < 1e-3:
+		return "ω=" + strconv.FormatFloat(w, 'g', 3, 64)
+	}
+	decimals := max(0, 2-int(math.Floor(math.Log10(a))))
+	return "ω=" + strconv.FormatFloat(w, 'f', decimals, 64)
+}
+
+// formatNumber writes a level as the caller would: the shortest form
+// that reads back to the same value, e.g. "1.4", "2", "0.05".
+func formatNumber(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// finitePieces splits pts at non-finite coordinates into runs of at
+// least two points.
+func finitePieces(pts []boundary.Point) [][]boundary.Point {
+	var out [][]boundary.Point
+	start := 0
+	for i := 0; i <= len(pts); i++ {
+		if i < len(pts) && finite(pts[i].X) && finite(pts[i].Y) {
+			continue
+		}
+		if i-start >= 2 {
+			out = append(out, pts[start:i])
+		}
+		start = i + 1
+	}
+	return out
+}
+
+// finite reports whether v is neither NaN nor infinite.
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+
+// canvasPath maps boundary points to canvas units, carrying ω along.
+func canvasPath(pts []boundary.Point, trX, trY transform) []pathPoint {
+	out := make([]pathPoint, len(pts))
+	for i, p := range pts {
+		out[i] = pathPoint{At: vg.Point{X: trX(p.X), Y: trY(p.Y)}, Value: p.Omega}
+	}
+	return out
+}
+
+// pathLength is the arc length of path in canvas units.
+func pathLength(path []pathPoint) vg.Length {
+	var l vg.Length
+	for i := 1; i < len(path); i++ {
+		l += dist(path[i-1].At, path[i].At)
+	}
+	return l
+}
+
+// rectPoints returns the closed outline of r.
+func rectPoints(r vg.Rectangle) []vg.Point {
+	return []vg.Point{
+		r.Min, {X: r.Max.X, Y: r.Min.Y}, r.Max, {X: r.Min.X, Y: r.Max.Y}, r.Min,
+	}
+}

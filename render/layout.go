@@ -1,0 +1,197 @@
+package render
+
+import (
+	"image/color"
+	"math"
+	"strings"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/font"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/text"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+)
+
+// The page is laid out as a header (title and notes) across the top, the
+// plot below it on the left, and the legend column on the right, its
+// top level with the top of the data area. A shaded figure has its
+// scale as a bar between plot and legend, as tall as the data area, so
+// the scale never competes with the legend for height.
+
+// Page spacing.
+const (
+	margin     = vg.Length(9)
+	panelGap   = vg.Length(12)
+	headerGap  = vg.Length(8)
+	minPanel   = 3 * vg.Centimeter
+	panelShare = 0.36 // largest share of the width the legend may take
+)
+
+// plotOnly hides every method of a plotter except Plot, so line plotters
+// neither widen the axes nor pad the data area: the axes are set to the
+// map's cells exactly.
+type plotOnly struct{ plot.Plotter }
+
+// drawFigure draws f, already checked and with defaults, onto c.
+func drawFigure(c draw.Canvas, f *Figure) {
+	var scale *shadeScale
+	if f.Shade != nil {
+		if lo, hi, ok := f.Shade.Range(); ok {
+			scale = newShadeScale(lo, hi)
+		}
+	}
+	rc := countColours(scale != nil)
+
+	inner := draw.Crop(c, margin, -margin, margin, -margin)
+	used := drawHeader(inner, f)
+	body := draw.Crop(inner, 0, 0, 0, -used)
+
+	sections := legendSections(f, rc, scale)
+	panelW := vg.Length(0)
+	for _, sec := range sections {
+		w, _ := sectionSize(sec)
+		panelW = max(panelW, w)
+	}
+	panelW = min(max(panelW, minPanel), vg.Length(panelShare)*body.Size().X)
+	var scaleW vg.Length
+	if scale != nil {
+		scaleW = scaleColumnWidth(scale, f.Shade.Name)
+	}
+
+	plotC := draw.Crop(body, 0, -(panelW + panelGap + scaleW), 0, 0)
+	p := buildPlot(f, rc, scale)
+	p.Draw(plotC)
+	data := p.DataCanvas(plotC)
+	if scale != nil {
+		drawScale(c, scale, f.Shade.Name, vg.Rectangle{
+			Min: vg.Point{X: plotC.Max.X, Y: data.Min.Y},
+			Max: vg.Point{X: plotC.Max.X + scaleW, Y: data.Max.Y},
+		})
+	}
+
+	panel := draw.Crop(body, body.Size().X-panelW, 0, 0, data.Max.Y-body.Max.Y)
+	for _, sec := range sections {
+		h := drawSection(panel, sec)
+		panel = draw.Crop(panel, 0, 0, 0, -(h + sectionGap))
+	}
+}
+
+// drawHeader sets the title and notes, wrapped to the width of c, from
+// its top edge and returns the height used.
+func drawHeader(c draw.Canvas, f *Figure) vg.Length {
+	y := c.Max.Y
+	put := func(s text.Style, txt string) {
+		s.YAlign = text.YTop
+		for _, line := range wrap(s, txt, c.Size().X) {
+			c.FillText(s, vg.Point{X: c.Min.X, Y: y}, line)
+			y -= s.Height(line) * 1.1
+		}
+	}
+	if f.Title != "" {
+		put(textStyle(titleSize, true, inkColour), f.Title)
+		y -= 2
+	}
+	for _, n := range f.Notes {
+		put(textStyle(noteSize, false, noteColour), n)
+	}
+	if y == c.Max.Y {
+		return 0
+	}
+	return c.Max.Y - y + headerGap
+}
+
+// wrap breaks txt at spaces into lines no wider than width where
+// possible; a single word wider than width gets a line of its own.
+func wrap(s text.Style, txt string, width vg.Length) []string {
+	var lines []string
+	line := ""
+	for _, w := range strings.Fields(txt) {
+		try := w
+		if line != "" {
+			try = line + " " + w
+		}
+		if line != "" && s.Width(try) > width {
+			lines = append(lines, line)
+			line = w
+			continue
+		}
+		line = try
+	}
+	if line != "" {
+		lines = append(lines, line)
+	}
+	return lines
+}
+
+// styleAxis sets an axis's fonts and strokes.
+func styleAxis(a *plot.Axis, label string) {
+	a.Label.Text = label
+	a.Label.TextStyle.Font = font.From(sans, axisSize)
+	a.Label.TextStyle.Color = inkColour
+	a.Label.Padding = 4
+	a.Tick.Label.Font = font.From(sans, tickSize)
+	a.Tick.Label.Color = inkColour
+	a.Tick.Length = 4
+	a.Tick.LineStyle.Width = 0.6
+	// The annotations plotter frames the data area; an axis line as
+	// well would double the left and bottom edges.
+	a.LineStyle.Width = 0
+	a.Padding = 0
+	a.Tick.Marker = readableTicks{}
+}
+
+// buildPlot assembles the map: fills, hatching, iso-lines, boundary
+// curves and, last, the labels and marks.
+func buildPlot(f *Figure, rc regionColours, scale *shadeScale) *plot.Plot {
+	p := plot.New()
+	styleAxis(&p.X, f.XLabel)
+	styleAxis(&p.Y, f.YLabel)
+
+	m := f.Map
+	p.Add(cellFill{g: m, colour: func(c, r int) color.Color { return rc.count(m.Count(c, r)) }})
+	xe, ye := cellEdges(m.XAxis.N, m.X), cellEdges(m.YAxis.N, m.Y)
+	p.X.Min, p.X.Max = xe[0], xe[len(xe)-1]
+	p.Y.Min, p.Y.Max = ye[0], ye[len(ye)-1]
+
+	if scale != nil {
+		shade := stableOnly{f.Shade, m}
+		p.Add(cellFill{g: shade, colour: func(c, r int) color.Color {
+			v := shade.Z(c, r)
+			if math.IsNaN(v) {
+				return nil
+			}
+			return scale.colourAt((v - scale.Min()) / (scale.Max() - scale.Min()))
+		}})
+	}
+	if hasUndecided(m) {
+		p.Add(undecidedHatch{m})
+	}
+	ann := annotations{fig: f}
+	for i, cs := range f.Contours {
+		set := isoSet{name: cs.Name}
+		for _, level := range cs.Levels {
+			lines := isoLines(cs.Field, level)
+			for _, l := range lines {
+				p.Add(plotOnly{&plotter.Line{XYs: l, LineStyle: contourStyle(i)}})
+			}
+			set.levels = append(set.levels, isoLevel{level, lines})
+		}
+		ann.iso = append(ann.iso, set)
+	}
+	var halos, lines []plot.Plotter
+	for _, cv := range f.Curves {
+		for _, piece := range finitePieces(cv.Points) {
+			xys := make(plotter.XYs, len(piece))
+			for i, pt := range piece {
+				xys[i].X, xys[i].Y = pt.X, pt.Y
+			}
+			halos = append(halos, plotOnly{&plotter.Line{XYs: xys, LineStyle: haloStyle()}})
+			lines = append(lines, plotOnly{&plotter.Line{XYs: xys, LineStyle: curveStyle(cv.Kind)}})
+		}
+	}
+	p.Add(halos...)
+	p.Add(lines...)
+	p.Add(ann)
+	return p
+}
