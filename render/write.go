@@ -2,8 +2,8 @@ package render
 
 import (
 	"fmt"
+	"gainscape/internal/safefile"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -37,7 +37,7 @@ func Write(w io.Writer, format string, f Figure) error {
 // names (.png or .svg, in any letter case). It writes to a temporary file
 // in the same directory and renames it into place, so a failure never
 // leaves a partial image at path.
-func WriteFile(path string, f Figure) (err error) {
+func WriteFile(path string, f Figure) error {
 	ext := filepath.Ext(path)
 	format := strings.ToLower(strings.TrimPrefix(ext, "."))
 	if format != "png" && format != "svg" {
@@ -46,31 +46,8 @@ func WriteFile(path string, f Figure) (err error) {
 	if err := f.check(); err != nil {
 		return fmt.Errorf("%w (writing %s)", err, path)
 	}
-	dir, base := filepath.Split(path)
-	if dir == "" {
-		dir = "."
-	}
-	tmp, err := os.CreateTemp(dir, "."+base+".*.tmp")
-	if err != nil {
-		return fmt.Errorf("render: writing %s: %w", path, err)
-	}
-	defer func() {
-		if err != nil {
-			tmp.Close()
-			os.Remove(tmp.Name())
-		}
-	}()
-	if err := Write(tmp, format, f); err != nil {
-		return fmt.Errorf("render: writing %s: %w", path, err)
-	}
-	if err := tmp.Close(); err != nil {
-		return fmt.Errorf("render: writing %s: %w", path, err)
-	}
-	if err := os.Chmod(tmp.Name(), 0o644); err != nil {
-		return fmt.Errorf("render: writing %s: %w", path, err)
-	}
-	if err := os.Rename(tmp.Name(), path); err != nil {
-		return fmt.Errorf("render: writing %s: %w", path, err)
+	if err := safefile.Write(path, func(w io.Writer) error { return Write(w, format, f) }); err != nil {
+		return fmt.Errorf("render: %w", err)
 	}
 	return nil
 }

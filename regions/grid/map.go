@@ -15,7 +15,7 @@ const Undecided = -1
 // row j = 0 is at YAxis.Min. It satisfies gonum/plot's plotter.GridXYZ.
 type Map struct {
 	XAxis, YAxis plane.Axis
-	RHP  []int8
+	RHP          []int8
 }
 
 // NewMap returns a map of the given axes with every count zero.

@@ -50,10 +50,10 @@ func benchEigen(b *testing.B, n int) {
 
 // The sign-array test and the eigenvalue check on the same polynomials, so
 // that their ratio can be read from one run.
-func BenchmarkCountDegree5(b *testing.B)   { benchCount(b, 5) }
-func BenchmarkEigenDegree5(b *testing.B)   { benchEigen(b, 5) }
-func BenchmarkCountDegree10(b *testing.B)  { benchCount(b, 10) }
-func BenchmarkEigenDegree10(b *testing.B)  { benchEigen(b, 10) }
+func BenchmarkCountDegree5(b *testing.B)  { benchCount(b, 5) }
+func BenchmarkEigenDegree5(b *testing.B)  { benchEigen(b, 5) }
+func BenchmarkCountDegree10(b *testing.B) { benchCount(b, 10) }
+func BenchmarkEigenDegree10(b *testing.B) { benchEigen(b, 10) }
 func BenchmarkAnalyzeDegree5(b *testing.B) {
 	ps := stablePolys(5, 256)
 	b.ReportAllocs()

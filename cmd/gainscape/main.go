@@ -1,0 +1,86 @@
+// Command gainscape maps where a feedback loop is stable in the plane of
+// two controller parameters, where that region's edges are, and at which
+// frequency the loop oscillates on each edge.
+//
+// Usage:
+//
+//	gainscape map [flags]     draw a stability map (no flags: a built-in demo)
+//	gainscape help [command]  show help
+//
+// Run "gainscape help map" for the flags and worked examples.
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"os/signal"
+)
+
+// Exit codes: 2 for a problem with what the user gave (flags, files,
+// expressions), 1 for a failure of the tool itself.
+const (
+	exitInternal = 1
+	exitUsage    = 2
+)
+
+// usageError marks an error caused by the user's input.
+type usageError struct{ err error }
+
+func (e usageError) Error() string { return e.err.Error() }
+func (e usageError) Unwrap() error { return e.err }
+
+func userErr(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
+
+// caution is printed with every report and written into notes.
+const caution = "Caution: these results describe the linear model given. Validate the design against actuator limits, saturation, noise and model error; safety-related loops follow the applicable codes and a qualified engineer's review."
+
+const overview = `gainscape — stability maps of feedback loops in controller-parameter planes
+
+Commands:
+  map     draw the stable region of a loop in the plane of two controller
+          parameters, its edges and the oscillation frequency along them
+  help    show help for a command
+
+With no flags, "gainscape map" draws a built-in demo scenario.
+Run "gainscape help map" for every flag with examples.
+`
+
+func main() {
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
+	defer stop()
+	os.Exit(run(ctx, os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run executes one command line and returns the exit code.
+func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		fmt.Fprint(stderr, overview)
+		return exitUsage
+	}
+	var err error
+	switch args[0] {
+	case "map":
+		err = runMap(ctx, args[1:], stdout, stderr)
+	case "help", "-h", "--help":
+		if len(args) > 1 && args[1] == "map" {
+			fmt.Fprint(stdout, mapHelp)
+			return 0
+		}
+		fmt.Fprint(stdout, overview)
+		return 0
+	default:
+		err = userErr("unknown command %q (commands: map, help)", args[0])
+	}
+	if err == nil {
+		return 0
+	}
+	fmt.Fprintln(stderr, "gainscape:", err)
+	var ue usageError
+	if errors.As(err, &ue) || errors.Is(err, context.Canceled) {
+		return exitUsage
+	}
+	return exitInternal
+}
