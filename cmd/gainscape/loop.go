@@ -50,7 +50,10 @@ func (f loopFlags) buildLoop() (plane.Loop, error) {
 		return plane.Loop{}, userErr("give the plant as --plant EXPR, or as both --num and --den")
 	}
 	if err := expr.Check(num, den); err != nil {
-		return plane.Loop{}, userErr("plant %s: %v", f.plantText(), err)
+		if f.plant != "" {
+			return plane.Loop{}, userErr("--plant %q: %v", f.plant, err)
+		}
+		return plane.Loop{}, userErr("--num %q --den %q: %v", f.num, f.den, err)
 	}
 	fam, err := family.Lookup(f.ctrl)
 	if err != nil {

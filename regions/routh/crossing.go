@@ -57,6 +57,23 @@ func ClassifyCrossing(p poly.Poly) Crossing {
 			b[j] = q[i]
 		}
 	}
+	if (n-1)%2 == 1 {
+		// The second row holds the odd coefficients directly; it vanishes
+		// when a pair crosses on a polynomial of even degree 2 or more.
+		size := 0.0
+		for _, v := range b {
+			size = math.Max(size, math.Abs(v))
+		}
+		if size/scale < bestSize {
+			aux := make(poly.Poly, n+1)
+			for j, v := range a {
+				if d := n - 2*j; d >= 0 {
+					aux[d] = v
+				}
+			}
+			best, bestSize = Crossing{Vanishing: "row", Aux: aux, Omega: auxOmega(aux, q)}, size/scale
+		}
+	}
 	for k := 1; k < n; k++ {
 		// b is row s^(n-k); form row s^(n-k-1) and measure its cancellation.
 		if b[0] == 0 {

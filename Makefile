@@ -1,0 +1,31 @@
+# gainscape — build, test, examples and benchmarks.
+GO ?= go
+
+.PHONY: build test demo examples bench fuzz check
+
+build:
+	$(GO) build -o bin/gainscape ./cmd/gainscape
+
+test:
+	$(GO) test -timeout 20m ./...
+
+# The built-in demo map, written to gainscape-demo.png.
+demo: build
+	./bin/gainscape map
+
+# Re-make every image in examples/ from its scenario.
+examples: build
+	./bin/gainscape map -o examples/demo-pump-pid.png --grid 400x300 --quiet
+
+bench:
+	$(GO) test -run XXX -bench . -benchtime 2s ./regions/...
+
+# Longer fuzz runs than the few seconds CI gives each target.
+fuzz:
+	$(GO) test -run XXX -fuzz FuzzParse -fuzztime 3m ./regions/expr/
+	$(GO) test -run XXX -fuzz FuzzCount -fuzztime 3m ./regions/routh/
+
+check:
+	gofmt -l .
+	$(GO) vet ./...
+	$(GO) test -timeout 20m ./...
