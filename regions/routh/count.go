@@ -55,7 +55,8 @@ const (
 )
 
 // WorkLen returns the scratch length Count needs for polynomials with up to
-// n+1 coefficients.
+// n+1 coefficients: two rows of entries, each entry a value and the
+// running bound on its rounding error side by side.
 func WorkLen(n int) int { return 4 * (n/2 + 2) }
 
 // Count returns the number of right-half-plane roots of p (ascending
@@ -93,60 +94,68 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 	if m == 0 {
 		return 0, lo, Decided
 	}
-	w := m/2 + 1
+	// Rows are stored as (value, error bound) pairs: a[2j], a[2j+1].
+	w := 2 * (m/2 + 2)
 	a, b := work[:w], work[w:2*w]
-	ea, eb := work[2*w:3*w], work[3*w:4*w]
-	for j := 0; j < w; j++ {
-		a[j], b[j] = 0, 0
-		if i := m - 2*j; i >= 0 {
-			a[j] = q[i]
-		}
-		if i := m - 1 - 2*j; i >= 0 {
-			b[j] = q[i]
-		}
-		ea[j] = inputUlps * unit * math.Abs(a[j])
-		eb[j] = inputUlps * unit * math.Abs(b[j])
+	// Only the entry past the end of each first row is read before it is
+	// written, and must be zero.
+	a[m-m%2+2], a[m-m%2+3] = 0, 0
+	b[m+m%2], b[m+m%2+1] = 0, 0
+	const e0 = inputUlps * unit
+	for i := m; i >= 0; i -= 2 {
+		j := m - i
+		a[j], a[j+1] = q[i], e0*math.Abs(q[i])
+	}
+	for i := m - 1; i >= 0; i -= 2 {
+		j := m - 1 - i
+		b[j], b[j+1] = q[i], e0*math.Abs(q[i])
 	}
 	prevNeg := a[0] < 0
 	for k := 1; k <= m; k++ {
 		// b holds row s^(m-k); its first entry is the pivot.
-		if b[0] == 0 {
+		b0, eb0 := b[0], b[1]
+		if b0 == 0 {
 			return 0, 0, NeedsAnalysis
 		}
-		neg := b[0] < 0
+		neg := b0 < 0
 		if neg != prevNeg {
 			rhp++
 		}
 		prevNeg = neg
-		if k == m {
+		if k == m-1 {
+			// The constant coefficient passes unchanged down the last
+			// column, so the final pivot, row s^0, is q[0] itself.
+			if (q[0] < 0) != prevNeg {
+				rhp++
+			}
 			break
 		}
 		// Next row, in place over a: a[j] = a[j+1] − r·b[j+1], r = a[0]/b[0],
 		// with error bounds carried alongside. Row s^(m-k-1) has
 		// (m-k-1)/2 + 1 meaningful entries; the rest stay zero.
-		inv := 1 / b[0]
+		inv := 1 / b0
 		r := a[0] * inv
 		absR := math.Abs(r)
-		er := (ea[0]+absR*eb[0])*math.Abs(inv) + 2*unit*absR
-		width := (m-k-1)/2 + 1
-		an, ean := a[1:width+1], ea[1:width+1]
-		bn, ebn := b[1:width+1], eb[1:width+1]
-		for j := range an {
-			x, y := an[j], bn[j]
+		er := (a[1]+absR*eb0)*math.Abs(inv) + 2*unit*absR
+		width := 2 * ((m-k-1)/2 + 1)
+		for j := 0; j < width; j += 2 {
+			x, ex := a[j+2], a[j+3]
+			y, ey := b[j+2], b[j+3]
 			ry := r * y
 			d := x - ry
-			e := ean[j] + absR*ebn[j] + math.Abs(y)*er + unit*(math.Abs(x)+2*math.Abs(ry))
+			e := ex + absR*ey + math.Abs(y)*er + unit*(math.Abs(x)+2*math.Abs(ry))
 			if math.Abs(d) <= e {
 				d = 0
 			}
-			a[j], ea[j] = d, e
+			a[j], a[j+1] = d, e
 		}
-		a[width], ea[width] = 0, 0
-		if !(math.Abs(a[0]) <= math.MaxFloat64) || !(ea[0] <= math.MaxFloat64) {
+		a[width], a[width+1] = 0, 0
+		// The bound sums magnitudes, so it is finite only if every value
+		// that entered the entry was.
+		if !(a[1] <= math.MaxFloat64) {
 			return 0, 0, Undecidable
 		}
 		a, b = b, a
-		ea, eb = eb, ea
 	}
 	return rhp, lo, Decided
 }
