@@ -3,9 +3,11 @@ module gainscape
 go 1.26.8
 
 require (
+	github.com/BurntSushi/toml v1.6.0
 	github.com/lucasb-eyer/go-colorful v1.4.1
 	github.com/spf13/pflag v1.1.0
 	golang.org/x/image v0.30.0
+	golang.org/x/term v0.48.0
 	gonum.org/v1/gonum v0.17.0
 	gonum.org/v1/plot v0.17.0
 )
@@ -17,5 +19,6 @@ require (
 	git.sr.ht/~sbinet/gg v0.7.0 // indirect
 	github.com/ajstarks/svgo v0.0.0-20211024235047-1546f124cd8b // indirect
 	github.com/golang/freetype v0.0.0-20170609003504-e2365dfdc4a0 // indirect
+	golang.org/x/sys v0.50.0 // indirect
 	golang.org/x/text v0.28.0 // indirect
 )

@@ -20,10 +20,12 @@ import (
 )
 
 // Exit codes: 2 for a problem with what the user gave (flags, files,
-// expressions), 1 for a failure of the tool itself.
+// expressions), 1 for a failure of the tool itself, 130 when interrupted
+// (128 + SIGINT, the shell convention).
 const (
-	exitInternal = 1
-	exitUsage    = 2
+	exitInternal    = 1
+	exitUsage       = 2
+	exitInterrupted = 130
 )
 
 // usageError marks an error caused by the user's input.
@@ -47,6 +49,9 @@ Commands:
 With no flags, "gainscape map" draws a built-in demo scenario.
 Run "gainscape help map" for every flag with examples.
 `
+
+// stdoutFile is where "-o -" writes the image.
+var stdoutFile io.Writer = os.Stdout
 
 func main() {
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
@@ -78,8 +83,11 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		return 0
 	}
 	fmt.Fprintln(stderr, "gainscape:", err)
+	if errors.Is(err, context.Canceled) {
+		return exitInterrupted
+	}
 	var ue usageError
-	if errors.As(err, &ue) || errors.Is(err, context.Canceled) {
+	if errors.As(err, &ue) {
 		return exitUsage
 	}
 	return exitInternal

@@ -53,13 +53,21 @@ Window:
                       depend on it
                         --workers 1
 Output:
-  -o, --out FILE      image, .png or .svg (default gainscape-map.png)
+  -o, --out FILE      image, .png or .svg (default gainscape-map.png);
+                      - writes the image to standard output
                         -o pump-pid.svg
+  --format png|svg    image format when the extension does not say
+                        -o - --format svg > map.svg
   --data FILE         the map as JSON: axes, counts, boundaries with ω
                         --data region.json
+  --csv FILE          the boundary polylines: curve, kind, x, y, ω
+                        --csv edges.csv
+  --note FILE         a Markdown block for a design note: image link, loop,
+                      stable ranges and the caution
+                        --note design-note.md
   --title TEXT        replaces the plant-and-controller title
                         --title "Pressure loop, PID with kd = 0.5"
-  --quiet             print nothing but errors
+  --quiet             print nothing but errors (and no progress bar)
                         --quiet
 
 With no plant flag, a built-in demo scenario (an invented pump pressure loop)
@@ -93,6 +101,8 @@ type mapFlags struct {
 	x, y, grid string
 	workers    int
 	out, data  string
+	csv, note  string
+	format     string
 	title      string
 	quiet      bool
 }
@@ -111,6 +121,9 @@ func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
 	fs.IntVar(&f.workers, "workers", 0, "goroutines (0 = all cores)")
 	fs.StringVarP(&f.out, "out", "o", "gainscape-map.png", "image file (.png or .svg)")
 	fs.StringVar(&f.data, "data", "", "JSON data file")
+	fs.StringVar(&f.csv, "csv", "", "CSV file of the boundary polylines")
+	fs.StringVar(&f.note, "note", "", "Markdown note for a design document")
+	fs.StringVar(&f.format, "format", "", "image format png or svg (default: from the --out extension)")
 	fs.StringVar(&f.title, "title", "", "figure title")
 	fs.BoolVar(&f.quiet, "quiet", false, "print nothing but errors")
 	return fs
@@ -142,12 +155,22 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if f.workers < 0 {
 		return userErr("--workers %d: must be 0 (all cores) or more", f.workers)
 	}
-	if err := checkOutputs(f.out, f.data); err != nil {
+	format, err := f.imageFormat()
+	if err != nil {
 		return err
+	}
+	if err := checkOutputs(f); err != nil {
+		return err
+	}
+	if f.out == "-" && !f.quiet {
+		// The image goes to stdout, so the report goes to stderr.
+		stdout = stderr
 	}
 
 	start := time.Now()
-	m, err := grid.Evaluate(ctx, job, grid.Options{Workers: f.workers})
+	bar := newProgress(stderr, "mapping", job.Y.N, f.quiet)
+	m, err := grid.Evaluate(ctx, job, grid.Options{Workers: f.workers, Progress: bar.set})
+	bar.finish()
 	if err != nil {
 		return err
 	}
@@ -169,8 +192,28 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		notes = append(notes, demoLabel)
 	}
 	fig := render.Figure{Map: m, Curves: curves, Title: title, Notes: notes}
-	if err := render.WriteFile(f.out, fig); err != nil {
+	if f.out == "-" {
+		if err := render.Write(stdoutFile, format, fig); err != nil {
+			return err
+		}
+	} else if err := safefile.Write(f.out, func(w io.Writer) error { return render.Write(w, format, fig) }); err != nil {
 		return err
+	}
+	if f.csv != "" {
+		if err := safefile.Write(f.csv, func(w io.Writer) error { return writeCSV(w, job, curves) }); err != nil {
+			return err
+		}
+	}
+	if f.note != "" {
+		link := ""
+		if f.out != "-" {
+			if rel, err := filepath.Rel(filepath.Dir(f.note), f.out); err == nil {
+				link = filepath.ToSlash(rel)
+			}
+		}
+		if err := safefile.Write(f.note, func(w io.Writer) error { return writeNote(w, job, m, curves, f, link) }); err != nil {
+			return err
+		}
 	}
 	if f.data != "" {
 		doc := export.NewRegion(m, curves)
@@ -224,15 +267,32 @@ func (f mapFlags) setup() (plane.Setup, error) {
 	return s, nil
 }
 
+// imageFormat returns "png" or "svg" from --format or the --out extension.
+func (f mapFlags) imageFormat() (string, error) {
+	if f.format != "" {
+		switch v := strings.ToLower(f.format); v {
+		case "png", "svg":
+			return v, nil
+		}
+		return "", userErr("--format %q: use png or svg", f.format)
+	}
+	if f.out == "-" {
+		return "png", nil
+	}
+	switch ext := strings.ToLower(filepath.Ext(f.out)); ext {
+	case ".png", ".svg":
+		return ext[1:], nil
+	}
+	return "", userErr("--out %q: unknown image type %q; use .png or .svg (or --format)", f.out, filepath.Ext(f.out))
+}
+
 // checkOutputs rejects output paths that cannot be written before any
 // work is done.
-func checkOutputs(out, data string) error {
-	ext := strings.ToLower(filepath.Ext(out))
-	if ext != ".png" && ext != ".svg" {
-		return userErr("--out %q: unknown image type %q; use .png or .svg", out, filepath.Ext(out))
-	}
-	for flag, p := range map[string]string{"--out": out, "--data": data} {
-		if p == "" {
+func checkOutputs(f mapFlags) error {
+	paths := []struct{ flag, path string }{{"--out", f.out}, {"--data", f.data}, {"--csv", f.csv}, {"--note", f.note}}
+	for _, o := range paths {
+		flag, p := o.flag, o.path
+		if p == "" || (flag == "--out" && p == "-") {
 			continue
 		}
 		if err := dirExists(p); err != nil {
