@@ -167,6 +167,9 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		stdout = stderr
 	}
 
+	if w := scalingWarning(job); w != "" && !f.quiet {
+		fmt.Fprintln(stderr, w)
+	}
 	start := time.Now()
 	bar := newProgress(stderr, "mapping", job.Y.N, f.quiet)
 	m, err := grid.Evaluate(ctx, job, grid.Options{Workers: f.workers, Progress: bar.set})

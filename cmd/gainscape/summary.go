@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"math"
 	"io"
 	"os"
 	"path/filepath"
@@ -63,4 +64,26 @@ func dirExists(path string) error {
 		return fmt.Errorf("directory %s does not exist", dir)
 	}
 	return nil
+}
+
+// scalingWarning returns a warning when the characteristic polynomial's
+// coefficients at the window's corners span so many decades that products
+// in the sign array approach the limits of double precision; nodes where
+// that happens are reported as undecided rather than guessed.
+func scalingWarning(s plane.Setup) string {
+	pc := s.Pencil()
+	lo, hi := math.Inf(1), 0.0
+	for _, x := range []float64{s.X.Min, s.X.Max} {
+		for _, y := range []float64{s.Y.Min, s.Y.Max} {
+			for _, c := range pc.Eval(x, y) {
+				if a := math.Abs(c); a != 0 {
+					lo, hi = math.Min(lo, a), math.Max(hi, a)
+				}
+			}
+		}
+	}
+	if hi > 1e100 || lo < 1e-100 || hi/lo > 1e150 {
+		return fmt.Sprintf("warning: characteristic coefficients range from %.3g to %.3g; the sign array may lose meaning, and nodes it cannot decide are marked undecided — consider rescaling time (s) or gains", lo, hi)
+	}
+	return ""
 }

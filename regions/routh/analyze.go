@@ -70,7 +70,8 @@ type Report struct {
 func (r Report) Stable() bool { return !r.Undecided && r.RHP == 0 && r.JW == 0 && r.DegreeDrop == 0 }
 
 // Analyze runs the complete sign-array test on p (ascending coefficients).
-// Coefficients are compared with InputTol relative to the largest one;
+// Coefficients are compared with InputTol relative to their balanced
+// scale (see balancedScales);
 // computed entries are tested by stochastic arithmetic (see samples).
 // The ε rule is exact in the limit when the polynomial has no
 // imaginary-axis roots; when it does, they reveal themselves as an
@@ -86,14 +87,14 @@ func Analyze(p poly.Poly) Report {
 		rep.Undecided, rep.Reason = true, "every coefficient is zero"
 		return rep
 	}
-	lim := InputTol * scale
+	scales := balancedScales(p)
 	hi := len(p) - 1
-	for math.Abs(p[hi]) <= lim {
+	for math.Abs(p[hi]) <= InputTol*scales[hi] {
 		hi--
 	}
 	rep.DegreeDrop = len(p) - 1 - hi
 	lo := 0
-	for math.Abs(p[lo]) <= lim {
+	for math.Abs(p[lo]) <= InputTol*scales[lo] {
 		lo++
 	}
 	rep.ZeroRoots = lo
@@ -116,7 +117,7 @@ func Analyze(p poly.Poly) Report {
 		row := make([]series, w)
 		for j := range row {
 			if i := m - r - 2*j; i >= 0 {
-				row[j] = ar.monomial(perturb(q[i], i, scale), 0)
+				row[j] = ar.monomial(perturb(q[i], i, scales[lo+i]), 0)
 			} else {
 				row[j] = ar.zero()
 			}
@@ -157,7 +158,7 @@ func Analyze(p poly.Poly) Report {
 			a := make(poly.Poly, power+2)
 			for j, e := range above {
 				if d := power + 1 - 2*j; d >= 0 {
-					v := e.at(order)
+					v, _ := e.at(order)
 					a[d] = v.mean()
 					if d >= 1 && j < len(row) {
 						for s := range v {
@@ -232,9 +233,9 @@ func Analyze(p poly.Poly) Report {
 
 // perturb returns the three CESTAC samples of input coefficient v (the
 // coefficient of s^i): v itself and two copies moved by up to perturbSize
-// times the largest coefficient, scale. A characteristic polynomial is
-// formed by sums of products, so each coefficient carries rounding of the
-// size of the largest terms, not of itself; the perturbation is a few
+// times its balanced scale. A characteristic polynomial is formed by sums
+// of products, so each coefficient carries rounding of the size of the
+// largest terms that formed it, not of itself; the perturbation is a few
 // hundred units in the last place of those, enough to dominate the
 // rounding of the array itself so that the spread of the samples measures
 // sensitivity. The pattern is a fixed function of i, so results are

@@ -19,11 +19,12 @@ package routh
 
 import "math"
 
-// InputTol is the relative size below which a coefficient of the input
-// polynomial is taken to be zero: at most InputTol times the largest
-// coefficient. It allows for the rounding of forming the characteristic
-// polynomial from plant and controller (a few units in the last place of
-// the largest term) with a wide margin.
+// InputTol is the relative size below which Analyze takes a coefficient of
+// the input polynomial to be zero: at most InputTol times its balanced
+// scale (see balancedScales). It allows for the rounding of forming the
+// characteristic polynomial from plant and controller with a wide margin.
+// Count itself treats only exact zeros as zero and leaves near-zeros to
+// its error bounds.
 const InputTol = 1e-13
 
 // unit is the unit roundoff of float64, 2^-53.
@@ -81,12 +82,11 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 	if scale == 0 {
 		return 0, 0, Undecidable
 	}
-	lim := InputTol * scale
-	if math.Abs(p[n]) <= lim {
+	if p[n] == 0 {
 		return 0, 0, NeedsAnalysis
 	}
 	lo := 0
-	for math.Abs(p[lo]) <= lim {
+	for p[lo] == 0 {
 		lo++
 	}
 	q := p[lo:]

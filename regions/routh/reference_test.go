@@ -181,3 +181,32 @@ func TestCountIsScaleInvariant(t *testing.T) {
 		}
 	}
 }
+
+// TestWideRangeCoefficients checks polynomials whose coefficients span
+// many decades because their roots do: zero tests relative to the largest
+// coefficient would call the leading coefficient of (s+1000)⁶ zero.
+// Expected counts are from the construction (roots given).
+func TestWideRangeCoefficients(t *testing.T) {
+	tests := []struct {
+		name  string
+		roots []complex128
+		rhp   int
+	}{
+		{"six fast roots", []complex128{-1000, -1000, -1000, -1000, -1000, -1000}, 0},
+		{"slow and fast", []complex128{-1e-3, -1e-3, complex(-2e-3, 1e-3), complex(-2e-3, -1e-3), -1e3, -2e3}, 0},
+		{"slow unstable pair among fast", []complex128{complex(1e-4, 1e-3), complex(1e-4, -1e-3), -1e4, -3e4}, 2},
+		{"very slow loop", []complex128{-1e-60, complex(-1e-60, 2e-60), complex(-1e-60, -2e-60), 3e-60}, 1},
+	}
+	work := make([]float64, WorkLen(8))
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			p := poly.FromRoots(tc.roots)
+			if got, _, st := Count(p, work); st != Decided || got != tc.rhp {
+				t.Errorf("Count = %d (status %d); want %d", got, st, tc.rhp)
+			}
+			if rep := Analyze(p); rep.RHP != tc.rhp || rep.JW != 0 || rep.DegreeDrop != 0 {
+				t.Errorf("Analyze: rhp %d jw %d drop %d; want %d, 0, 0", rep.RHP, rep.JW, rep.DegreeDrop, tc.rhp)
+			}
+		})
+	}
+}

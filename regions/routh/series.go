@@ -48,18 +48,30 @@ func (x samples) isZero() bool {
 type series struct {
 	lo int
 	c  []samples
+	// m[i] is the size of the terms of the last operation that formed
+	// c[i]: a coefficient whose mean is within roundingUlps units in the
+	// last place of m[i] is the rounding residue of an exact cancellation,
+	// zero whatever the samples say (perturbing the inputs cannot reveal
+	// an algebraic identity, which cancels for every sample alike).
+	m []float64
 }
+
+// roundingUlps is the rounding allowance, in units of the last place of
+// the terms that formed a coefficient, of the zero test.
+const roundingUlps = 256
 
 // arith does series arithmetic with a fixed number of kept terms, set by
 // Analyze from the degree so that cancelled leading orders cannot exhaust it.
 type arith struct{ terms int }
 
-func (ar arith) zero() series { return series{c: make([]samples, ar.terms)} }
+func (ar arith) zero() series {
+	return series{c: make([]samples, ar.terms), m: make([]float64, ar.terms)}
+}
 
 // monomial returns v·ε^order.
 func (ar arith) monomial(v samples, order int) series {
 	s := ar.zero()
-	s.c[0], s.lo = v, order
+	s.c[0], s.m[0], s.lo = v, math.Abs(v.mean()), order
 	return ar.norm(s)
 }
 
@@ -95,21 +107,21 @@ func (s series) lead() (float64, int) {
 	return 0, 0
 }
 
-// at returns the coefficient of ε^k.
-func (s series) at(k int) samples {
+// at returns the coefficient of ε^k and the size of its terms.
+func (s series) at(k int) (samples, float64) {
 	i := k - s.lo
 	if i < 0 || i >= len(s.c) {
-		return samples{}
+		return samples{}, 0
 	}
-	return s.c[i]
+	return s.c[i], s.m[i]
 }
 
 // norm clears computational zeros and shifts s so that c[0] is its
 // lowest non-zero term.
 func (ar arith) norm(s series) series {
 	for i, v := range s.c {
-		if v.isZero() {
-			s.c[i] = samples{}
+		if v.isZero() || math.Abs(v.mean()) <= roundingUlps*unit*s.m[i] {
+			s.c[i], s.m[i] = samples{}, 0
 		}
 	}
 	f := 0
@@ -122,7 +134,9 @@ func (ar arith) norm(s series) series {
 	}
 	if f > 0 {
 		copy(s.c, s.c[f:])
+		copy(s.m, s.m[f:])
 		clear(s.c[len(s.c)-f:])
+		clear(s.m[len(s.m)-f:])
 		s.lo += f
 	}
 	return s
@@ -138,10 +152,12 @@ func (ar arith) sub(a, b series) series {
 	r := ar.zero()
 	r.lo = lo
 	for i := range r.c {
-		x, y := a.at(lo+i), b.at(lo+i)
+		x, _ := a.at(lo + i)
+		y, _ := b.at(lo + i)
 		for k := range x {
 			r.c[i][k] = x[k] - y[k]
 		}
+		r.m[i] = math.Abs(x.mean()) + math.Abs(y.mean())
 	}
 	return ar.norm(r)
 }
@@ -158,6 +174,7 @@ func (ar arith) mul(a, b series) series {
 			for k := range x {
 				r.c[n][k] += x[k] * y[k]
 			}
+			r.m[n] += math.Abs(x.mean() * y.mean())
 		}
 	}
 	return ar.norm(r)
@@ -170,16 +187,19 @@ func (ar arith) div(a, b series) series {
 		return r
 	}
 	r.lo = a.lo - b.lo
+	b0 := math.Abs(b.c[0].mean())
 	for n := range r.c {
-		v := a.c[n]
+		v, m := a.c[n], math.Abs(a.c[n].mean())
 		for j := 1; j <= n; j++ {
 			for k := range v {
 				v[k] -= b.c[j][k] * r.c[n-j][k]
 			}
+			m += math.Abs(b.c[j].mean() * r.c[n-j].mean())
 		}
 		for k := range v {
 			r.c[n][k] = v[k] / b.c[0][k]
 		}
+		r.m[n] = m / b0
 	}
 	return ar.norm(r)
 }
