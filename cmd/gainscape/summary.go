@@ -2,8 +2,8 @@ package main
 
 import (
 	"fmt"
-	"math"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"time"
