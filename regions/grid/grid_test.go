@@ -1,0 +1,86 @@
+package grid
+
+import (
+	"context"
+	"testing"
+
+	"gainscape/regions/family"
+	"gainscape/regions/plane"
+	"gainscape/regions/poly"
+)
+
+// TestEvaluateAgainstEigenvalues checks every node of a PID map of a
+// fourth-order plant against the right-half-plane count from gonum's
+// eigenvalues, skipping nodes whose closed-loop roots are too close to
+// the axis for either method to be expected to agree.
+func TestEvaluateAgainstEigenvalues(t *testing.T) {
+	// Invented plant 2/((s+1)(s+0.5)(0.3s+1)²) under PID with kd = 0.4, tau = 0.1.
+	den := poly.Mul(poly.Poly{1, 1}, poly.Mul(poly.Poly{0.5, 1}, poly.Poly{1, 0.3}.Pow(2)))
+	loop := plane.Loop{PlantNum: poly.Poly{2}, PlantDen: den, Family: family.PID{}, Values: []float64{0, 0, 0.4, 0.1}}
+	s, err := plane.NewSetup(loop, plane.Axis{Param: "kp", Min: -2, Max: 10, N: 61}, plane.Axis{Param: "ki", Min: -1, Max: 5, N: 41})
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := Evaluate(context.Background(), s, Options{Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checked := 0
+	for j := 0; j < s.Y.N; j++ {
+		for i := 0; i < s.X.N; i++ {
+			p := s.With(s.XIndex, s.X.At(i), s.YIndex, s.Y.At(j)).Characteristic()
+			roots, err := p.Roots()
+			if err != nil {
+				t.Fatal(err)
+			}
+			want, near := 0, false
+			for _, r := range roots {
+				if real(r) > 0 {
+					want++
+				}
+				if abs(real(r)) < 1e-6*max(1, abs(real(r))+abs(imag(r))) {
+					near = true
+				}
+			}
+			if near {
+				continue
+			}
+			checked++
+			if got := m.Count(i, j); got != want {
+				t.Fatalf("node (%g, %g): count %d, eigenvalues %d", s.X.At(i), s.Y.At(j), got, want)
+			}
+		}
+	}
+	if checked < 2400 {
+		t.Fatalf("only %d nodes checked", checked)
+	}
+	st := m.Stats()
+	if st.Stable == 0 || st.Stable == st.Nodes || st.Undecided != 0 {
+		t.Fatalf("stats %+v: want a mix of stable and unstable nodes", st)
+	}
+	if rows := m.Rows(); len(rows) != 41 || len(rows[0]) != 61 || rows[3][5] != m.Count(5, 3) {
+		t.Fatal("Rows layout differs from Count")
+	}
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+// BenchmarkEvaluate measures whole-map throughput, nodes per second, on
+// the demo-like PID plane.
+func BenchmarkEvaluate(b *testing.B) {
+	den := poly.Mul(poly.Poly{0.5, 1}, poly.Mul(poly.Poly{2, 1}, poly.Poly{1, 0.4}.Pow(2)))
+	loop := plane.Loop{PlantNum: poly.Poly{3}, PlantDen: den, Family: family.PID{}, Values: []float64{0, 0, 0.5, 0.05}}
+	s, _ := plane.NewSetup(loop, plane.Axis{Param: "kp", Min: -1, Max: 8, N: 400}, plane.Axis{Param: "ki", Min: -0.5, Max: 4, N: 300})
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := Evaluate(context.Background(), s, Options{Workers: 1}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.N*400*300)/b.Elapsed().Seconds(), "nodes/s")
+}
