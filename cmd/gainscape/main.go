@@ -6,8 +6,10 @@
 //
 //	gainscape map [flags]     draw a stability map (no flags: a built-in demo)
 //	gainscape help [command]  show help
+//	gainscape probe [flags]   margins, poles and robustness of one design point
 //
-// Run "gainscape help map" for the flags and worked examples.
+// Run "gainscape help map" or "gainscape help probe" for the flags and
+// worked examples.
 package main
 
 import (
@@ -44,10 +46,13 @@ const overview = `gainscape — stability maps of feedback loops in controller-p
 Commands:
   map     draw the stable region of a loop in the plane of two controller
           parameters, its edges and the oscillation frequency along them
+  probe   how stable and how robust one design point is: sign array, poles,
+          margins, Ms, distance to the nearest edge; or, with --vary, the
+          stable intervals of one parameter
   help    show help for a command
 
 With no flags, "gainscape map" draws a built-in demo scenario.
-Run "gainscape help map" for every flag with examples.
+Run "gainscape help map" or "gainscape help probe" for every flag with examples.
 `
 
 // stdoutFile is where "-o -" writes the image.
@@ -69,15 +74,20 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	switch args[0] {
 	case "map":
 		err = runMap(ctx, args[1:], stdout, stderr)
+	case "probe":
+		err = runProbe(ctx, args[1:], stdout)
 	case "help", "-h", "--help":
-		if len(args) > 1 && args[1] == "map" {
+		switch {
+		case len(args) > 1 && args[1] == "map":
 			fmt.Fprint(stdout, mapHelp)
-			return 0
+		case len(args) > 1 && args[1] == "probe":
+			fmt.Fprint(stdout, probeHelp)
+		default:
+			fmt.Fprint(stdout, overview)
 		}
-		fmt.Fprint(stdout, overview)
 		return 0
 	default:
-		err = userErr("unknown command %q (commands: map, help)", args[0])
+		err = userErr("unknown command %q (commands: map, probe, help)", args[0])
 	}
 	if err == nil {
 		return 0

@@ -35,10 +35,12 @@ type Loop struct {
 }
 
 // Characteristic returns the closed-loop characteristic polynomial at the
-// loop's parameter values.
+// loop's parameter values, without leading coefficients that are exactly
+// zero: a structure that lacks a term (an ideal derivative, tau = 0) has a
+// lower degree, not a root at infinity.
 func (l Loop) Characteristic() poly.Poly {
 	cn, cd := l.Family.Controller(l.Values)
-	return family.Characteristic(l.PlantNum, l.PlantDen, cn, cd)
+	return family.Characteristic(l.PlantNum, l.PlantDen, cn, cd).Trim(0)
 }
 
 // With returns a copy of l whose parameters xi and yi are set to x and y.
