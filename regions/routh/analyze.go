@@ -89,12 +89,12 @@ func Analyze(p poly.Poly) Report {
 	}
 	scales := balancedScales(p)
 	hi := len(p) - 1
-	for math.Abs(p[hi]) <= InputTol*scales[hi] {
+	for negligible(p[hi], scales[hi]) {
 		hi--
 	}
 	rep.DegreeDrop = len(p) - 1 - hi
 	lo := 0
-	for math.Abs(p[lo]) <= InputTol*scales[lo] {
+	for negligible(p[lo], scales[lo]) {
 		lo++
 	}
 	rep.ZeroRoots = lo
@@ -110,14 +110,24 @@ func Analyze(p poly.Poly) Report {
 		return rep
 	}
 
-	ar := arith{terms: 3*m + 8}
+	// Polynomials whose roots are all very fast or very slow are balanced
+	// first (s = ρ·t), which changes no sign and keeps the array clear of
+	// overflow and of underflow into subnormal numbers.
+	rho := 1.0
+	if b, logRho, ok := balance(q); ok {
+		q, rho = b, math.Exp(logRho)
+	}
+	qScales := balancedScales(q)
+
+	overflow, rowDoubt := false, false
+	ar := arith{terms: 3*m + 8, overflow: &overflow}
 	w := m/2 + 1
 	rows := make([][]series, 0, m+1)
 	for r := 0; r < 2; r++ {
 		row := make([]series, w)
 		for j := range row {
 			if i := m - r - 2*j; i >= 0 {
-				row[j] = ar.monomial(perturb(q[i], i, scales[lo+i]), 0)
+				row[j] = ar.monomial(perturb(q[i], i, math.Exp(qScales[i])), 0)
 			} else {
 				row[j] = ar.zero()
 			}
@@ -144,6 +154,9 @@ func Analyze(p poly.Poly) Report {
 		row := rows[k]
 		power := m - k
 		if allZero(row) {
+			for _, e := range row {
+				rowDoubt = rowDoubt || e.doubtful
+			}
 			// All-zero row: the row above holds the auxiliary polynomial
 			// A(s) = Σ α_j s^(power+1−2j), an even or odd factor of q whose
 			// roots are symmetric about both axes.
@@ -192,6 +205,17 @@ func Analyze(p poly.Poly) Report {
 		}
 	}
 
+	if overflow {
+		rep.Undecided, rep.Reason = true, "the sign array overflows double precision"
+		return rep
+	}
+	for _, row := range rows {
+		if row[0].doubtful || rowDoubt {
+			rep.Undecided = true
+			rep.Reason = "a first-column entry of the sign array has no significant digits: the polynomial is too close to a boundary, or too ill-conditioned, to decide in double precision"
+			return rep
+		}
+	}
 	prev := rows[0][0].sign()
 	changes := make([]int, m+1) // changes[k]: sign changes between rows k-1 and k
 	for k := 1; k <= m; k++ {
@@ -217,13 +241,16 @@ func Analyze(p poly.Poly) Report {
 
 	rep.JW = rep.ZeroRoots
 	if auxRow >= 0 {
-		rep.Aux = aux
+		rep.Aux = unbalance(aux, rho)
 		below := 0
 		for k := auxRow + 1; k <= m; k++ {
 			below += changes[k]
 		}
 		rep.JW += len(aux) - 1 - 2*below
 		rep.Omegas = axisFrequencies(aux, q, (len(aux)-1-2*below)/2)
+		for i := range rep.Omegas {
+			rep.Omegas[i] *= rho
+		}
 	}
 	if rep.ZeroRoots > 0 {
 		rep.Omegas = append([]float64{0}, rep.Omegas...)

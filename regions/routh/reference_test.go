@@ -93,6 +93,14 @@ func TestCountAgreesWithEigenvalues(t *testing.T) {
 // many digits to rounding cannot show it in double precision.
 func TestAuxiliaryCasesAgreeWithEigenvalues(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
+	undecided := 0
+	defer func() {
+		// Declining to decide is allowed, rarely; a wrong count never is.
+		if undecided > 100 {
+			t.Errorf("%d of 2000 cases undecided; want at most 100", undecided)
+		}
+		t.Logf("%d of 2000 cases undecided", undecided)
+	}()
 	for trial := 0; trial < 2000; trial++ {
 		n := 1 + trial%6
 		roots, _ := randomRoots(rng, n, 0.1, math.Log(3))
@@ -110,6 +118,10 @@ func TestAuxiliaryCasesAgreeWithEigenvalues(t *testing.T) {
 			p = poly.Mul(p, poly.Poly{w * w, 0, 1})
 		}
 		rep := Analyze(p)
+		if rep.Undecided {
+			undecided++
+			continue
+		}
 		if rep.RHP != ref || rep.JW != 2*len(omegas) {
 			for _, r := range rep.Rows {
 				t.Log(r.Power, r.Entries, r.Epsilon, r.Auxiliary, r.Aux)
@@ -138,7 +150,7 @@ func TestAuxiliaryCasesAgreeWithEigenvalues(t *testing.T) {
 // (a_(n-1)·a_(n-2) − a_n·a_(n-3))/a_(n-1)). Degrees 4 to 12.
 func TestEpsilonCasesAgreeWithEigenvalues(t *testing.T) {
 	rng := rand.New(rand.NewPCG(5, 6))
-	checked := 0
+	checked, undecided := 0, 0
 	for trial := 0; trial < 3000; trial++ {
 		n := 4 + trial%9
 		desc := make([]float64, n+1)
@@ -152,6 +164,10 @@ func TestEpsilonCasesAgreeWithEigenvalues(t *testing.T) {
 			continue
 		}
 		rep := Analyze(p)
+		if rep.Undecided {
+			undecided++
+			continue
+		}
 		if rep.RHP != ref || rep.JW != 0 {
 			t.Fatalf("trial %d: rhp %d jw %d; eigenvalues %d; p = %v", trial, rep.RHP, rep.JW, ref, desc)
 		}
@@ -160,6 +176,10 @@ func TestEpsilonCasesAgreeWithEigenvalues(t *testing.T) {
 	if checked < 2500 {
 		t.Fatalf("only %d of 3000 cases had a trustworthy reference", checked)
 	}
+	if undecided > checked/20 {
+		t.Fatalf("%d of %d cases undecided; want at most 5%%", undecided, checked)
+	}
+	t.Logf("%d of %d cases undecided", undecided, checked)
 }
 
 // TestCountIsScaleInvariant checks that zero tests are relative: the same
@@ -195,7 +215,7 @@ func TestWideRangeCoefficients(t *testing.T) {
 		{"six fast roots", []complex128{-1000, -1000, -1000, -1000, -1000, -1000}, 0},
 		{"slow and fast", []complex128{-1e-3, -1e-3, complex(-2e-3, 1e-3), complex(-2e-3, -1e-3), -1e3, -2e3}, 0},
 		{"slow unstable pair among fast", []complex128{complex(1e-4, 1e-3), complex(1e-4, -1e-3), -1e4, -3e4}, 2},
-		{"very slow loop", []complex128{-1e-60, complex(-1e-60, 2e-60), complex(-1e-60, -2e-60), 3e-60}, 1},
+		{"very slow loop", []complex128{-1e-60, complex(-1e-60, 2e-60), complex(-1e-60, -2e-60), 0.5e-60}, 1},
 	}
 	work := make([]float64, WorkLen(8))
 	for _, tc := range tests {

@@ -54,6 +54,12 @@ type series struct {
 	// zero whatever the samples say (perturbing the inputs cannot reveal
 	// an algebraic identity, which cancels for every sample alike).
 	m []float64
+	// doubtful is set when the series' leading order is in question: a
+	// coefficient below it had no significant digits under the input
+	// perturbations yet was too large, relative to its operands, to be the
+	// residue of a cancellation that is exact in the unperturbed problem.
+	// It passes to every series computed from this one.
+	doubtful bool
 }
 
 // roundingUlps is the rounding allowance, in units of the last place of
@@ -62,7 +68,16 @@ const roundingUlps = 256
 
 // arith does series arithmetic with a fixed number of kept terms, set by
 // Analyze from the degree so that cancelled leading orders cannot exhaust it.
-type arith struct{ terms int }
+type arith struct {
+	terms int
+	// overflow is set when a value in the array is not finite.
+	overflow *bool
+}
+
+// lossLimit is the largest size, relative to the terms that formed it,
+// that a coefficient without significant digits may have and still be
+// taken for zero: up to about thirteen decimal digits lost to cancellation.
+const lossLimit = 1e-3
 
 func (ar arith) zero() series {
 	return series{c: make([]samples, ar.terms), m: make([]float64, ar.terms)}
@@ -119,14 +134,27 @@ func (s series) at(k int) (samples, float64) {
 // norm clears computational zeros and shifts s so that c[0] is its
 // lowest non-zero term.
 func (ar arith) norm(s series) series {
+	firstDoubt := len(s.c)
 	for i, v := range s.c {
-		if v.isZero() || math.Abs(v.mean()) <= roundingUlps*unit*s.m[i] {
+		mean := math.Abs(v.mean())
+		switch {
+		case !(mean <= math.MaxFloat64):
+			*ar.overflow = true
+		case mean <= roundingUlps*unit*s.m[i]:
+			s.c[i], s.m[i] = samples{}, 0
+		case v.isZero():
+			if mean > lossLimit*s.m[i] && i < firstDoubt {
+				firstDoubt = i
+			}
 			s.c[i], s.m[i] = samples{}, 0
 		}
 	}
 	f := 0
 	for f < len(s.c) && s.c[f] == (samples{}) {
 		f++
+	}
+	if firstDoubt < f {
+		s.doubtful = true
 	}
 	if f == len(s.c) {
 		s.lo = 0
@@ -151,6 +179,7 @@ func (ar arith) sub(a, b series) series {
 	}
 	r := ar.zero()
 	r.lo = lo
+	r.doubtful = a.doubtful || b.doubtful
 	for i := range r.c {
 		x, _ := a.at(lo + i)
 		y, _ := b.at(lo + i)
@@ -168,6 +197,7 @@ func (ar arith) mul(a, b series) series {
 		return r
 	}
 	r.lo = a.lo + b.lo
+	r.doubtful = a.doubtful || b.doubtful
 	for n := range r.c {
 		for i := 0; i <= n; i++ {
 			x, y := a.c[i], b.c[n-i]
@@ -187,6 +217,7 @@ func (ar arith) div(a, b series) series {
 		return r
 	}
 	r.lo = a.lo - b.lo
+	r.doubtful = a.doubtful || b.doubtful
 	b0 := math.Abs(b.c[0].mean())
 	for n := range r.c {
 		v, m := a.c[n], math.Abs(a.c[n].mean())

@@ -1,0 +1,278 @@
+package scenario
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"reflect"
+	"sort"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"gainscape/regions/spec"
+)
+
+// maxFileSize bounds what Decode reads. A scenario is a few hundred bytes;
+// the bound keeps a wrong file, an image or a log, from being read whole.
+const maxFileSize = 1 << 20
+
+// Load reads the scenario file at path; see Decode.
+func Load(path string) (Scenario, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return Scenario{}, &Error{File: path, Msg: "cannot be opened: " + err.Error()}
+	}
+	defer f.Close()
+	return Decode(f, path)
+}
+
+// Decode reads a scenario file from r; name is the file name for
+// messages. Keys the file leaves out keep their values from Default.
+//
+// Decode checks TOML syntax, the schema version, key names (which are
+// case-sensitive) and value types. It stops at the first problem it meets
+// and returns it as an *Error naming the file, the key and, where the
+// TOML reader knows it, the line; unknown keys are reported together,
+// joined. Within a table the order of the checks is not the order of the
+// lines, so of two wrong values either may be reported. It does not check
+// that the scenario is complete or consistent, because command-line flags
+// may still complete or override it: call Validate on the final scenario.
+func Decode(r io.Reader, name string) (Scenario, error) {
+	fail := func(key, format string, args ...any) (Scenario, error) {
+		return Scenario{}, &Error{File: name, Key: key, Msg: fmt.Sprintf(format, args...)}
+	}
+	data, err := io.ReadAll(io.LimitReader(r, maxFileSize+1))
+	if err != nil {
+		return fail("", "cannot be read: %v", err)
+	}
+	if len(data) > maxFileSize {
+		return fail("", "is larger than %d bytes; a scenario file is a short TOML text", maxFileSize)
+	}
+	var top struct {
+		Schema   toml.Primitive `toml:"schema"`
+		Loop     toml.Primitive `toml:"loop"`
+		Axes     toml.Primitive `toml:"axes"`
+		Fixed    toml.Primitive `toml:"fixed"`
+		Overlays toml.Primitive `toml:"overlays"`
+		Output   toml.Primitive `toml:"output"`
+	}
+	md, err := toml.NewDecoder(bytes.NewReader(data)).Decode(&top)
+	if err != nil {
+		return Scenario{}, fromTOML(name, err, "TOML syntax: ")
+	}
+	s := Default()
+	var fixed map[string]number
+	var markTables []bool
+	bind := bindings(&s, &markTables)
+	if err := checkCase(name, md.Keys(), bind); err != nil {
+		return Scenario{}, err
+	}
+	if !md.IsDefined("schema") {
+		return fail("schema", "missing; a scenario file starts with schema = %d", Version)
+	}
+	if err := md.PrimitiveDecode(top.Schema, &checkSchema{}); err != nil {
+		return Scenario{}, fromTOML(name, err, "")
+	}
+	for _, t := range []struct {
+		name string
+		prim toml.Primitive
+		into any
+	}{
+		{"loop", top.Loop, bind["loop"]},
+		{"axes", top.Axes, bind["axes"]},
+		{"fixed", top.Fixed, &fixed},
+		{"overlays", top.Overlays, bind["overlays"]},
+		{"output", top.Output, bind["output"]},
+	} {
+		if !md.IsDefined(t.name) {
+			continue
+		}
+		// A table made implicitly, by [overlays.x] or [[overlays.marks]]
+		// alone, has no type of its own.
+		if typ := md.Type(t.name); typ != "Hash" && typ != "" {
+			return fail(t.name, "expected a table [%s], found %s", t.name, tomlType(typ))
+		}
+		if err := md.PrimitiveDecode(t.prim, t.into); err != nil {
+			return Scenario{}, fromTOML(name, err, "")
+		}
+	}
+	if err := unknownKeys(name, md.Undecoded(), bind); err != nil {
+		return Scenario{}, err
+	}
+	s.Fixed = inFileOrder(fixed, md.Keys())
+	orderMarks(s.Overlays.Marks, markTables, md.Keys())
+	return s, nil
+}
+
+// bindings returns, for each table whose keys are fixed, a pointer to a
+// struct whose tagged fields write the keys' values into s. The tags are
+// the schema; SCHEMA.md documents them.
+func bindings(s *Scenario, markTables *[]bool) map[string]any {
+	l, a, v, o := &s.Loop, &s.Axes, &s.Overlays, &s.Output
+	return map[string]any{
+		"loop": &struct {
+			Plant       intoString  `toml:"plant"`
+			Numerator   intoNumbers `toml:"numerator"`
+			Denominator intoNumbers `toml:"denominator"`
+			Controller  intoString  `toml:"controller"`
+		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}},
+		"axes": &struct {
+			X    intoAxis `toml:"x"`
+			Y    intoAxis `toml:"y"`
+			Grid intoGrid `toml:"grid"`
+		}{intoAxis{&a.X}, intoAxis{&a.Y}, intoGrid{&a.Columns, &a.Rows}},
+		"overlays": &struct {
+			Decay         intoBool    `toml:"decay"`
+			DecayLevels   intoNumbers `toml:"decay_levels"`
+			DampingLevels intoNumbers `toml:"damping_levels"`
+			MsLevels      intoNumbers `toml:"ms_levels"`
+			MsBound       intoNumber  `toml:"ms_bound"`
+			Marks         intoMarks   `toml:"marks"`
+			Best          intoStrings `toml:"best"`
+		}{intoBool{&v.Decay}, intoNumbers{&v.DecayLevels}, intoNumbers{&v.DampingLevels}, intoNumbers{&v.MsLevels},
+			intoNumber{&v.MsBound}, intoMarks{&v.Marks, markTables}, intoStrings{&v.Best}},
+		"output": &struct {
+			Image    intoString `toml:"image"`
+			Data     intoString `toml:"data"`
+			CSV      intoString `toml:"csv"`
+			Note     intoString `toml:"note"`
+			Title    intoString `toml:"title"`
+			WidthCm  intoNumber `toml:"width_cm"`
+			HeightCm intoNumber `toml:"height_cm"`
+		}{intoString{&o.Image}, intoString{&o.Data}, intoString{&o.CSV}, intoString{&o.Note}, intoString{&o.Title},
+			intoNumber{&o.WidthCm}, intoNumber{&o.HeightCm}},
+	}
+}
+
+// topKeys are the keys of the top level.
+var topKeys = []string{"schema", "loop", "axes", "fixed", "overlays", "output"}
+
+// keysOf returns the keys a table accepts, in schema order: the tags of
+// its binding struct.
+func keysOf(binding any) []string {
+	t := reflect.TypeOf(binding).Elem()
+	keys := make([]string, t.NumField())
+	for i := range keys {
+		keys[i] = t.Field(i).Tag.Get("toml")
+	}
+	return keys
+}
+
+// checkCase rejects a key that differs from a schema key only in letter
+// case. The TOML reader would match it to the field anyway; the schema is
+// case-sensitive so that a file has one spelling.
+func checkCase(file string, keys []toml.Key, bind map[string]any) error {
+	for _, k := range keys {
+		var known []string
+		switch {
+		case len(k) == 1:
+			known = topKeys
+		case len(k) == 2 && bind[k[0]] != nil:
+			known = keysOf(bind[k[0]])
+		default:
+			continue
+		}
+		last := k[len(k)-1]
+		for _, name := range known {
+			if last != name && strings.EqualFold(last, name) {
+				want := append(append(toml.Key(nil), k[:len(k)-1]...), name)
+				return &Error{File: file, Key: k.String(), Msg: fmt.Sprintf("unknown key; keys are lower case: write %q", want.String())}
+			}
+		}
+	}
+	return nil
+}
+
+// unknownKeys reports the keys the decoding left undecoded, outermost
+// only: a key under an unknown table is not reported again. Keys inside
+// the tables of overlays.marks are checked by intoMarks, which the
+// reader does not tell about them.
+func unknownKeys(file string, undecoded []toml.Key, bind map[string]any) error {
+	var errs []error
+	var reported []string
+	for _, k := range undecoded {
+		if len(k) >= 3 && k[0] == "overlays" && k[1] == "marks" {
+			continue
+		}
+		key := k.String()
+		if under(key, reported) {
+			continue
+		}
+		reported = append(reported, key)
+		var msg string
+		if len(k) == 1 {
+			msg = "unknown key; the top level holds schema and the tables [loop], [axes], [fixed], [overlays] and [output]"
+		} else if b := bind[k[0]]; b != nil && len(k) == 2 {
+			msg = fmt.Sprintf("unknown key; [%s] holds %s", k[0], strings.Join(keysOf(b), ", "))
+		} else {
+			msg = "unknown key"
+		}
+		errs = append(errs, &Error{File: file, Key: key, Msg: msg})
+	}
+	return errors.Join(errs...)
+}
+
+// under reports whether key is one of outer or lies under one of them.
+func under(key string, outer []string) bool {
+	for _, o := range outer {
+		if key == o || strings.HasPrefix(key, o+".") {
+			return true
+		}
+	}
+	return false
+}
+
+// inFileOrder returns the [fixed] values in the order the file lists them.
+func inFileOrder(fixed map[string]number, keys []toml.Key) []spec.Value {
+	var out []spec.Value
+	for _, k := range keys {
+		if len(k) == 2 && k[0] == "fixed" {
+			if v, ok := fixed[k[1]]; ok {
+				out = append(out, spec.Value{Param: k[1], V: float64(v)})
+				delete(fixed, k[1])
+			}
+		}
+	}
+	return out
+}
+
+// orderMarks puts the names of the points given as tables in the order
+// they first appear in the file; the reader delivers tables unordered.
+func orderMarks(marks [][]spec.Value, tables []bool, keys []toml.Key) {
+	rank := map[string]int{}
+	for _, k := range keys {
+		if len(k) == 3 && k[0] == "overlays" && k[1] == "marks" {
+			if _, ok := rank[k[2]]; !ok {
+				rank[k[2]] = len(rank)
+			}
+		}
+	}
+	for i, m := range marks {
+		if tables[i] {
+			sort.SliceStable(m, func(a, b int) bool { return rank[m[a].Param] < rank[m[b].Param] })
+		}
+	}
+}
+
+// fromTOML turns an error of the TOML reader into an *Error. Decoding
+// errors carry the key; syntax errors carry only the line, and the key
+// the reader last saw is not necessarily the one at fault.
+func fromTOML(file string, err error, syntax string) error {
+	var pe toml.ParseError
+	if !errors.As(err, &pe) {
+		return &Error{File: file, Msg: strings.TrimPrefix(err.Error(), "toml: ")}
+	}
+	e := &Error{File: file, Line: pe.Position.Line, Msg: syntax + pe.Message}
+	if syntax == "" {
+		e.Key = pe.LastKey
+	}
+	return e
+}
