@@ -1,0 +1,279 @@
+// Package intervals finds, for one controller parameter with every other
+// parameter held fixed, the intervals of its values for which the closed
+// loop is stable, with how the roots cross the imaginary axis at each end.
+//
+// Method: the D-partition (D-decomposition) of Yu. I. Neimark, "On the
+// determination of the values of parameters for which an automatic
+// regulation system is stable", Avtomatika i Telemekhanika 9(3), 1948,
+// specialised to one parameter, where it is also known as the root-locus
+// crossing condition (common practice). The characteristic polynomial is
+// affine in one parameter, p(s; k) = A(s) + k·B(s), so stability can change
+// only where a root crosses the imaginary axis: at s = 0 (A(0) + k·B(0) = 0),
+// at s = ±jω (A(jω) + k·B(jω) = 0 for a real k, which makes
+// Im(A(jω)·conj(B(jω))) vanish) or at infinity (the leading coefficient
+// vanishes). These values of k are found from polynomial equations, the
+// pieces between them are tested once each with the Routh sign array, and
+// every end is confirmed by bisection on the sign-array test.
+package intervals
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"gainscape/regions/plane"
+	"gainscape/regions/poly"
+	"gainscape/regions/routh"
+)
+
+// Kinds of interval ends. The first three are the D-partition boundary
+// kinds; Window marks an end set by the search window, not by the loop.
+const (
+	// Real: a real root passes through s = 0; ω = 0.
+	Real = "real"
+	// Complex: a pair of roots crosses the imaginary axis at ±jω.
+	Complex = "complex"
+	// Infinite: a root passes through infinity (the leading coefficient of
+	// the characteristic polynomial vanishes, so its degree drops); ω is NaN.
+	Infinite = "infinite"
+	// Window: the interval is cut by the end of the search window; ω is NaN.
+	Window = "window"
+)
+
+// Interval is one maximal interval (Lo, Hi) of parameter values for which
+// the closed loop is stable. The kinds say what ends it on each side and
+// the omegas give the frequency of the crossing roots there (0 for Real,
+// NaN for Infinite and Window).
+type Interval struct {
+	Lo, Hi           float64
+	LoKind, HiKind   string
+	LoOmega, HiOmega float64
+}
+
+// Accuracy is the accuracy of interval ends relative to the value itself,
+// or to the window width for values within a millionth of the window width
+// from zero, for loops whose sign array is well conditioned near the end.
+// Bisection is run a hundred times tighter so that it holds with a margin.
+const Accuracy = 1e-10
+
+// bisectTol is the bisection stopping width, relative as for Accuracy.
+const bisectTol = 1e-12
+
+// nearZero is the fraction of the window width below which a parameter
+// value counts as near zero for the relative accuracy of its end.
+const nearZero = 1e-6
+
+// Stable returns every maximal sub-interval of [lo, hi] in which the closed
+// loop is stable when parameter param of loop.Family varies and every other
+// parameter keeps its value in loop.Values. Stable means no root in the
+// closed right half plane and no drop of degree (the sign-array test of
+// routh.Analyze). Intervals are returned in increasing order; an unstable
+// window gives none. An end at lo or hi is of kind Window unless the loop
+// has a boundary there itself. Where a pair of roots touches the imaginary
+// axis and returns, the loop is unstable at that one value, which splits
+// an interval in two with Complex ends there. Ends are accurate to
+// Accuracy.
+//
+// It returns an error for a window that is not a finite interval with
+// lo < hi, or a loop whose characteristic polynomial is not finite or is
+// identically zero. It panics if param is not an index of
+// loop.Family.Params().
+func Stable(loop plane.Loop, param int, lo, hi float64) ([]Interval, error) {
+	np := len(loop.Family.Params())
+	if param < 0 || param >= np {
+		panic(fmt.Sprintf("intervals: parameter index %d out of range for %d parameters", param, np))
+	}
+	name := loop.Family.Params()[param].Name
+	if math.IsNaN(lo) || math.IsNaN(hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) || !(lo < hi) {
+		return nil, fmt.Errorf("stable intervals of %s: window [%g, %g] must be finite with lower end below upper end", name, lo, hi)
+	}
+	ln, err := newLine(loop, param)
+	if err != nil {
+		return nil, fmt.Errorf("stable intervals of %s: %w", name, err)
+	}
+	s := search{line: ln, lo: lo, hi: hi, test: newTester(ln.len())}
+	return s.run(), nil
+}
+
+// search holds the state of one call of Stable.
+type search struct {
+	line   line
+	lo, hi float64
+	test   *tester
+}
+
+// tol returns the bisection width at parameter value k.
+func (s *search) tol(k float64) float64 {
+	return bisectTol * math.Max(math.Abs(k), nearZero*(s.hi-s.lo))
+}
+
+// stable reports whether the loop is stable at k.
+func (s *search) stable(k float64) bool { return s.test.stable(s.line.at(s.test.p, k)) }
+
+// group is a set of candidate boundary values that agree to within the
+// bisection tolerance, treated as one break point.
+type group struct {
+	k     float64
+	cands []candidate
+}
+
+// run splits the window at the candidate values, tests each piece, merges
+// stable neighbours and refines the ends.
+func (s *search) run() []Interval {
+	cands := s.line.candidates()
+	sort.Slice(cands, func(i, j int) bool { return cands[i].k < cands[j].k })
+	var atLo, atHi []candidate
+	var groups []group
+	for _, c := range cands {
+		switch {
+		case math.Abs(c.k-s.lo) <= s.tol(s.lo):
+			atLo = append(atLo, c)
+		case math.Abs(c.k-s.hi) <= s.tol(s.hi):
+			atHi = append(atHi, c)
+		case c.k > s.lo && c.k < s.hi:
+			if n := len(groups); n > 0 && c.k-groups[n-1].k <= s.tol(c.k) {
+				groups[n-1].cands = append(groups[n-1].cands, c)
+				continue
+			}
+			groups = append(groups, group{k: c.k, cands: []candidate{c}})
+		}
+	}
+	// Break points: the window ends and the groups. Piece i lies between
+	// break i and break i+1.
+	breaks := make([]float64, 0, len(groups)+2)
+	breaks = append(breaks, s.lo)
+	for _, g := range groups {
+		breaks = append(breaks, g.k)
+	}
+	breaks = append(breaks, s.hi)
+	mids := make([]float64, len(breaks)-1)
+	stable := make([]bool, len(breaks)-1)
+	for i := range mids {
+		mids[i] = 0.5 * (breaks[i] + breaks[i+1])
+		stable[i] = s.stable(mids[i])
+	}
+
+	var out []Interval
+	for i := 0; i < len(mids); {
+		if !stable[i] {
+			i++
+			continue
+		}
+		j := i
+		// Merge stable neighbours unless the shared break point is itself
+		// unstable: roots that touch the axis and return (a tangency of the
+		// D-partition curve) leave the loop unstable at that one value.
+		for j+1 < len(mids) && stable[j+1] && s.stable(breaks[j+1]) {
+			j++
+		}
+		iv := Interval{}
+		if i == 0 {
+			iv.Lo, iv.LoKind, iv.LoOmega = s.windowEnd(s.lo, atLo)
+		} else {
+			iv.Lo, iv.LoKind, iv.LoOmega = s.refine(groups[i-1], mids[i-1], mids[i], stable[i-1])
+		}
+		if j == len(mids)-1 {
+			iv.Hi, iv.HiKind, iv.HiOmega = s.windowEnd(s.hi, atHi)
+		} else {
+			iv.Hi, iv.HiKind, iv.HiOmega = s.refine(groups[j], mids[j], mids[j+1], true)
+		}
+		out = append(out, iv)
+		i = j + 1
+	}
+	return out
+}
+
+// windowEnd describes an interval end at a window end k: a boundary of the
+// loop if a candidate lies there or the loop is not stable at k itself
+// (then the sign array at k names the crossing), the window otherwise.
+func (s *search) windowEnd(k float64, at []candidate) (float64, string, float64) {
+	if len(at) > 0 {
+		c := s.pick(at, k)
+		return k, c.kind, c.omega
+	}
+	if !s.stable(k) {
+		c := classify(s.line.at(make(poly.Poly, s.line.len()), k))
+		return k, c.kind, c.omega
+	}
+	return k, Window, math.NaN()
+}
+
+// refine locates the boundary of group g between the midpoints a < b of
+// the two pieces beside it. The piece at a is stable exactly when
+// aStable; the other is not, or the boundary is a point of instability
+// between two stable pieces. The bracket starts as a small interval
+// centred on the analytic value and widens until the stability test
+// confirms it, never beyond a and b, then bisection narrows it to tol.
+// The analytic value is kept if bisection confirms it; otherwise the
+// bisection midpoint is returned, which guards against rounding in the
+// candidate.
+func (s *search) refine(g group, a, b float64, aStable bool) (float64, string, float64) {
+	bStable := s.stable(b)
+	if aStable == bStable {
+		// A touching point between two stable pieces: no bracket exists,
+		// the analytic value is the end.
+		c := s.pick(g.cands, g.k)
+		return g.k, c.kind, c.omega
+	}
+	tol := s.tol(g.k)
+	x, y := a, b
+	for d := 1e3 * tol; ; d *= 64 {
+		x, y = math.Max(g.k-d, a), math.Min(g.k+d, b)
+		if (x == a || s.stable(x) == aStable) && (y == b || s.stable(y) == bStable) {
+			break
+		}
+	}
+	for y-x > tol {
+		m := 0.5 * (x + y)
+		if m <= x || m >= y {
+			break
+		}
+		if s.stable(m) == aStable {
+			x = m
+		} else {
+			y = m
+		}
+	}
+	k := 0.5 * (x + y)
+	if g.k >= x-tol && g.k <= y+tol {
+		k = g.k
+	}
+	c := s.pick(g.cands, k)
+	return k, c.kind, c.omega
+}
+
+// pick chooses the candidate that describes the crossing at k. With one
+// candidate, or several of one kind, it is that kind; when kinds differ,
+// the sign array at k decides (routh.ClassifyCrossing).
+func (s *search) pick(cs []candidate, k float64) candidate {
+	same := true
+	for _, c := range cs[1:] {
+		same = same && c.kind == cs[0].kind
+	}
+	if same {
+		return cs[0]
+	}
+	want := classify(s.line.at(make(poly.Poly, s.line.len()), k))
+	best := cs[0]
+	for _, c := range cs {
+		if c.kind == want.kind {
+			if want.kind != Complex || math.Abs(c.omega-want.omega) < math.Abs(best.omega-want.omega) || best.kind != Complex {
+				best = c
+			}
+		}
+	}
+	return best
+}
+
+// classify names the crossing of p, which lies on a boundary to within
+// rounding, from its sign array (routh.ClassifyCrossing).
+func classify(p poly.Poly) candidate {
+	cr := routh.ClassifyCrossing(p)
+	switch cr.Vanishing {
+	case "constant":
+		return candidate{kind: Real, omega: 0}
+	case "leading":
+		return candidate{kind: Infinite, omega: math.NaN()}
+	}
+	return candidate{kind: Complex, omega: cr.Omega}
+}

@@ -1,0 +1,224 @@
+// Package overlay computes quantities that grade the stable part of a
+// stability map: how fast the slowest closed-loop pole decays, how well
+// damped the least damped pole is, and optionally the maximum sensitivity
+// Ms; picks best design points from them; and measures how far a design
+// point is from the nearest stability boundary.
+//
+// Values are laid out like grid.Map: one float64 per node, row-major, row
+// 0 at the y axis minimum, NaN at nodes that are not stable.
+package overlay
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
+
+	"gainscape/regions/grid"
+	"gainscape/regions/plane"
+	"gainscape/regions/poly"
+)
+
+// Sensitivity evaluates a robustness measure, normally the maximum
+// sensitivity Ms = max over ω of 1/|1 + L(jω)|, of the open loop
+// L = num/den, where num = Nc·N and den = Dc·D for the controller Nc/Dc
+// and plant N/D at one node. The slices are scratch owned by the caller of
+// the evaluator: it must not keep or change them. It may be called from
+// several goroutines at once.
+type Sensitivity func(num, den poly.Poly) float64
+
+// Options controls Compute and the searches that re-evaluate a point.
+type Options struct {
+	// Workers is the number of goroutines; 0 means runtime.NumCPU().
+	Workers int
+	// Damping asks for the smallest damping ratio at every stable node.
+	Damping bool
+	// Sensitivity, if set, is evaluated at every stable node into
+	// Grids.Ms.
+	Sensitivity Sensitivity
+	// Progress, if set, is called after each finished row with the number
+	// of rows done so far, from worker goroutines.
+	Progress func(rowsDone int)
+}
+
+// Grids holds per-node quantities over the axes of a stability map,
+// row-major like grid.Map: value k belongs to node (k mod XAxis.N,
+// k div XAxis.N). Nodes that are not stable hold NaN.
+type Grids struct {
+	XAxis, YAxis plane.Axis
+	// Decay is the decay rate σ = −max Re(pole): every closed-loop
+	// transient decays at least as fast as e^(−σt).
+	Decay []float64
+	// Damping is the smallest damping ratio min −Re(p)/|p| over the
+	// closed-loop poles p; nil unless Options.Damping.
+	Damping []float64
+	// Ms holds Options.Sensitivity at every stable node; nil without it.
+	Ms []float64
+}
+
+// At returns the index of node (i, j) in the value slices.
+func (g *Grids) At(i, j int) int { return j*g.XAxis.N + i }
+
+// Compute evaluates the requested quantities at every stable node of m,
+// which must be the map of s (same axes; it panics otherwise). Rows are
+// shared out among the workers one at a time and every node is computed
+// independently, so the result does not depend on the number of workers.
+// It returns ctx.Err() if the context is cancelled, with no grids.
+//
+// The decay rate comes from the sign array on the shifted polynomial
+// (allocation-free) when damping is not requested, and from the
+// eigenvalues of the companion matrix, which the damping ratio needs
+// anyway, when it is; bench_test.go gives the measured costs. The sign
+// array path allocates nothing per node. The eigenvalue path allocates a
+// few small arrays per node inside gonum's QR iteration (Dlahqr keeps a
+// 3-element array on the heap, once per iteration); the Sensitivity
+// evaluator may allocate too. A node exactly on a boundary (a root on the
+// imaginary axis that the map's count does not include) gets a decay rate
+// of zero within rounding.
+func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Grids, error) {
+	checkMap(s, m)
+	n := s.X.N * s.Y.N
+	g := &Grids{XAxis: s.X, YAxis: s.Y, Decay: nanSlice(n)}
+	if opt.Damping {
+		g.Damping = nanSlice(n)
+	}
+	if opt.Sensitivity != nil {
+		g.Ms = nanSlice(n)
+	}
+	pencil := s.Pencil()
+	open := newOpenLoop(s)
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.NumCPU()
+	}
+	workers = min(workers, s.Y.N)
+	var next, done atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			e := newEvaluator(pencil, open)
+			for {
+				j := int(next.Add(1) - 1)
+				if j >= s.Y.N || ctx.Err() != nil {
+					return
+				}
+				y := s.Y.At(j)
+				for i := 0; i < s.X.N; i++ {
+					k := j*s.X.N + i
+					if m.RHP[k] != 0 {
+						continue
+					}
+					x := s.X.At(i)
+					p := pencil.EvalInto(e.p, x, y)
+					if opt.Damping {
+						g.Decay[k], g.Damping[k] = e.poles.decayAndDamping(p)
+					} else {
+						g.Decay[k] = e.shift.decay(p)
+					}
+					if opt.Sensitivity != nil {
+						g.Ms[k] = opt.Sensitivity(e.openLoop(x, y))
+					}
+				}
+				d := done.Add(1)
+				if opt.Progress != nil {
+					opt.Progress(int(d))
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	return g, nil
+}
+
+// checkMap panics if m was not computed over the axes of s: passing the
+// map of another setup is a programming error.
+func checkMap(s plane.Setup, m *grid.Map) {
+	if m == nil || m.XAxis != s.X || m.YAxis != s.Y || len(m.RHP) != s.X.N*s.Y.N {
+		panic(fmt.Sprintf("overlay: map axes do not match the setup's %v × %v", s.X, s.Y))
+	}
+}
+
+func nanSlice(n int) []float64 {
+	v := make([]float64, n)
+	for i := range v {
+		v[i] = math.NaN()
+	}
+	return v
+}
+
+// openLoop holds the numerator Nc·N and denominator Dc·D of the open loop
+// as exact functions of the two axis values. Each is affine in each
+// parameter alone (the family.Family contract), so the same four-corner
+// construction as plane.Setup.Pencil applies.
+type openLoop struct {
+	num, den plane.Pencil
+}
+
+// OpenLoopLen returns the largest number of coefficients of the open-loop
+// numerator or denominator that Compute and the searches hand to a
+// Sensitivity evaluator for s, for sizing an evaluator's buffers.
+func OpenLoopLen(s plane.Setup) int {
+	o := newOpenLoop(s)
+	return max(o.num.Len(), o.den.Len())
+}
+
+func newOpenLoop(s plane.Setup) openLoop {
+	at := func(x, y float64) (poly.Poly, poly.Poly) {
+		l := s.With(s.XIndex, x, s.YIndex, y)
+		cn, cd := l.Family.Controller(l.Values)
+		return poly.Mul(cn, l.PlantNum), poly.Mul(cd, l.PlantDen)
+	}
+	n00, d00 := at(0, 0)
+	n10, d10 := at(1, 0)
+	n01, d01 := at(0, 1)
+	n11, d11 := at(1, 1)
+	return openLoop{num: pencilOf(n00, n10, n01, n11), den: pencilOf(d00, d10, d01, d11)}
+}
+
+// pencilOf returns A + x·B + y·C + x·y·E from its values at the corners
+// (0,0), (1,0), (0,1), (1,1).
+func pencilOf(p00, p10, p01, p11 poly.Poly) plane.Pencil {
+	n := max(len(p00), len(p10), len(p01), len(p11))
+	pad := func(p poly.Poly) poly.Poly { q := make(poly.Poly, n); copy(q, p); return q }
+	p00, p10, p01, p11 = pad(p00), pad(p10), pad(p01), pad(p11)
+	pc := plane.Pencil{A: p00, B: make(poly.Poly, n), C: make(poly.Poly, n), E: make(poly.Poly, n)}
+	for k := 0; k < n; k++ {
+		pc.B[k] = p10[k] - p00[k]
+		pc.C[k] = p01[k] - p00[k]
+		pc.E[k] = p11[k] - p10[k] - p01[k] + p00[k]
+	}
+	return pc
+}
+
+// evaluator is one worker's scratch space.
+type evaluator struct {
+	p, num, den poly.Poly
+	poles       *poleFinder
+	shift       *shiftTest
+	open        openLoop
+}
+
+func newEvaluator(pencil plane.Pencil, open openLoop) *evaluator {
+	return &evaluator{
+		p:     make(poly.Poly, pencil.Len()),
+		num:   make(poly.Poly, open.num.Len()),
+		den:   make(poly.Poly, open.den.Len()),
+		poles: newPoleFinder(pencil.Len()),
+		shift: newShiftTest(pencil.Len()),
+		open:  open,
+	}
+}
+
+// openLoop returns the open-loop numerator and denominator at (x, y),
+// without leading coefficients that are exactly zero (such as the s²
+// coefficient of an ideal PID's denominator).
+func (e *evaluator) openLoop(x, y float64) (num, den poly.Poly) {
+	return e.open.num.EvalInto(e.num, x, y).Trim(0), e.open.den.EvalInto(e.den, x, y).Trim(0)
+}
