@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 
 	"gainscape/regions/expr"
@@ -36,9 +37,6 @@ func (f loopFlags) buildLoop() (plane.Loop, error) {
 	case f.plant != "" && (f.num != "" || f.den != ""):
 		return plane.Loop{}, userErr("--plant cannot be combined with --num/--den; give the plant one way")
 	case f.plant != "":
-		if num, den, err = expr.Parse(f.plant); err != nil {
-			return plane.Loop{}, userErr("--plant: %v", err)
-		}
 	case f.num != "" && f.den != "":
 		if num, err = expr.ParseList(f.num); err != nil {
 			return plane.Loop{}, userErr("--num %q: %v", f.num, err)
@@ -49,31 +47,57 @@ func (f loopFlags) buildLoop() (plane.Loop, error) {
 	default:
 		return plane.Loop{}, userErr("give the plant as --plant EXPR, or as both --num and --den")
 	}
-	if err := expr.Check(num, den); err != nil {
-		if f.plant != "" {
-			return plane.Loop{}, userErr("--plant %q: %v", f.plant, err)
+	var fixed []spec.Value
+	if strings.TrimSpace(f.set) != "" {
+		if fixed, err = spec.ParseValues(f.set); err != nil {
+			return plane.Loop{}, userErr("--set: %v", err)
 		}
-		return plane.Loop{}, userErr("--num %q --den %q: %v", f.num, f.den, err)
 	}
-	fam, err := family.Lookup(f.ctrl)
+	return makeLoop(f.plant, num.Descending(), den.Descending(), f.ctrl, fixed)
+}
+
+// makeLoop builds a loop from a plant expression or coefficient lists
+// (highest power first), a family name and fixed values; parameters not
+// fixed keep the family defaults. Errors name the flag that carries each
+// value.
+func makeLoop(plant string, num, den []float64, ctrl string, fixed []spec.Value) (plane.Loop, error) {
+	var pn, pd poly.Poly
+	if plant != "" {
+		var err error
+		if pn, pd, err = expr.Parse(plant); err != nil {
+			return plane.Loop{}, userErr("--plant: %v", err)
+		}
+		if err := expr.Check(pn, pd); err != nil {
+			return plane.Loop{}, userErr("--plant %q: %v", plant, err)
+		}
+	} else {
+		pn, pd = poly.FromDescending(num), poly.FromDescending(den)
+		if err := expr.Check(pn, pd); err != nil {
+			return plane.Loop{}, userErr("--num %s --den %s: %v", listText(num), listText(den), err)
+		}
+	}
+	fam, err := family.Lookup(ctrl)
 	if err != nil {
 		return plane.Loop{}, userErr("--ctrl: %v", err)
 	}
-	loop := plane.Loop{PlantNum: num, PlantDen: den, Family: fam, Values: family.Defaults(fam)}
-	if strings.TrimSpace(f.set) != "" {
-		vals, err := spec.ParseValues(f.set)
+	loop := plane.Loop{PlantNum: pn, PlantDen: pd, Family: fam, Values: family.Defaults(fam)}
+	for _, v := range fixed {
+		i, err := family.Index(fam, v.Param)
 		if err != nil {
-			return plane.Loop{}, userErr("--set: %v", err)
+			return plane.Loop{}, userErr("--set %s=%g: %v", v.Param, v.V, err)
 		}
-		for _, v := range vals {
-			i, err := family.Index(fam, v.Param)
-			if err != nil {
-				return plane.Loop{}, userErr("--set %q: %v", f.set, err)
-			}
-			loop.Values[i] = v.V
-		}
+		loop.Values[i] = v.V
 	}
 	return loop, nil
+}
+
+// listText writes coefficients as the --num and --den flags take them.
+func listText(c []float64) string {
+	parts := make([]string, len(c))
+	for i, v := range c {
+		parts[i] = strconv.FormatFloat(v, 'g', -1, 64)
+	}
+	return strconv.Quote(strings.Join(parts, ", "))
 }
 
 // fixedText lists the parameters other than skip as "kd = 0.5, tau = 0".
