@@ -10,8 +10,8 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/export"
-	"gainscape/regions/grid"
 	"gainscape/regions/plane"
+	"gainscape/regions/scenario"
 )
 
 // writeCSV writes the boundary polylines, one point per row:
@@ -36,14 +36,15 @@ func writeCSV(w io.Writer, s plane.Setup, curves []boundary.Curve) error {
 
 // writeNote writes a short Markdown block for a design note: the image,
 // the loop, the stable ranges and the caution.
-func writeNote(w io.Writer, s plane.Setup, m *grid.Map, curves []boundary.Curve, f mapFlags, imageLink string) error {
+func writeNote(w io.Writer, res *mapResult, sc scenario.Scenario, plant, imageLink string) error {
+	s, m, curves := res.setup, res.m, res.curves
 	st := m.Stats()
 	var b strings.Builder
 	fmt.Fprintf(&b, "### Stability map: %s in the %s–%s plane\n\n", strings.ToUpper(s.Family.Name()), s.X.Param, s.Y.Param)
 	if imageLink != "" {
-		fmt.Fprintf(&b, "![Stability map of %s under %s](%s)\n\n", f.plantText(), strings.ToUpper(s.Family.Name()), imageLink)
+		fmt.Fprintf(&b, "![Stability map of %s under %s](%s)\n\n", plant, strings.ToUpper(s.Family.Name()), imageLink)
 	}
-	fmt.Fprintf(&b, "- Plant: G(s) = `%s`\n", f.plantText())
+	fmt.Fprintf(&b, "- Plant: G(s) = `%s`\n", plant)
 	fmt.Fprintf(&b, "- Controller: %s", s.Family.Formula())
 	if fixed := fixedText(s.Loop, s.XIndex, s.YIndex); fixed != "" {
 		fmt.Fprintf(&b, ", with %s", fixed)
@@ -61,6 +62,14 @@ func writeNote(w io.Writer, s plane.Setup, m *grid.Map, curves []boundary.Curve,
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(&b, "- %d nodes could not be decided by the sign-array test\n", st.Undecided)
+	}
+	if res.over != nil {
+		for _, p := range append(append([]pointInfo(nil), res.over.marks...), res.over.best...) {
+			fmt.Fprintf(&b, "- %s at %s = %.4g, %s = %.4g: %s\n", pointName(p), s.X.Param, p.X, s.Y.Param, p.Y, pointFigures(p))
+		}
+	}
+	if len(sc.Overlays.MsLevels) > 0 {
+		fmt.Fprintf(&b, "- Ms iso-lines drawn at %s\n", numbersText(sc.Overlays.MsLevels))
 	}
 	fmt.Fprintf(&b, "\n> %s\n", caution)
 	_, err := io.WriteString(w, b.String())

@@ -10,17 +10,18 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/export"
-	"gainscape/regions/grid"
 	"gainscape/regions/plane"
+	"gainscape/regions/scenario"
 )
 
 // printSummary writes the text report of a map.
-func printSummary(w io.Writer, s plane.Setup, m *grid.Map, curves []boundary.Curve, elapsed time.Duration, f mapFlags, demoLabel string) {
+func printSummary(w io.Writer, res *mapResult, sc scenario.Scenario, f mapFlags) {
+	s, m, curves := res.setup, res.m, res.curves
 	st := m.Stats()
-	if demoLabel != "" {
-		fmt.Fprintf(w, "%s (run with --plant to map your own loop)\n", demoLabel)
+	if res.demo != "" {
+		fmt.Fprintf(w, "%s (run with --plant to map your own loop)\n", res.demo)
 	}
-	fmt.Fprintf(w, "plant       G(s) = %s\n", f.plantText())
+	fmt.Fprintf(w, "plant       G(s) = %s\n", f.plantLabel(sc))
 	fmt.Fprintf(w, "controller  %s", s.Family.Formula())
 	if fixed := fixedText(s.Loop, s.XIndex, s.YIndex); fixed != "" {
 		fmt.Fprintf(w, "; fixed %s", fixed)
@@ -46,13 +47,44 @@ func printSummary(w io.Writer, s plane.Setup, m *grid.Map, curves []boundary.Cur
 	if st.Undecided > 0 {
 		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
 	}
-	rate := float64(st.Nodes) / elapsed.Seconds()
-	fmt.Fprintf(w, "nodes       %d evaluated and edges refined in %s (%.3g nodes/s)\n", st.Nodes, elapsed.Round(time.Millisecond), rate)
-	fmt.Fprintf(w, "image       %s\n", f.out)
-	if f.data != "" {
-		fmt.Fprintf(w, "data        %s\n", f.data)
+	if res.over != nil {
+		for _, p := range append(append([]pointInfo(nil), res.over.marks...), res.over.best...) {
+			fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), s.X.Param, p.X, s.Y.Param, p.Y, pointFigures(p))
+		}
+	}
+	rate := float64(st.Nodes) / res.elapsed.Seconds()
+	fmt.Fprintf(w, "nodes       %d evaluated, edges refined and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, res.elapsed.Round(time.Millisecond), rate)
+	if sc.Output.Image != "-" {
+		fmt.Fprintf(w, "image       %s\n", sc.Output.Image)
+	}
+	for _, o := range []struct{ what, path string }{{"data", sc.Output.Data}, {"csv", sc.Output.CSV}, {"note", sc.Output.Note}, {"scenario", f.save}} {
+		if o.path != "" {
+			fmt.Fprintf(w, "%-11s %s\n", o.what, o.path)
+		}
 	}
 	fmt.Fprintln(w, caution)
+}
+
+func pointName(p pointInfo) string {
+	if p.Criterion != "" {
+		return p.Label
+	}
+	return "mark " + p.Label
+}
+
+// pointFigures says how stable and robust a point is, in words.
+func pointFigures(p pointInfo) string {
+	if !p.Stable {
+		return "not stable"
+	}
+	s := fmt.Sprintf("decay rate %.4g 1/s, smallest damping %.3g", float64(p.Decay), float64(p.Damping))
+	if !math.IsNaN(float64(p.Ms)) {
+		s += fmt.Sprintf(", Ms %.4g", float64(p.Ms))
+	}
+	if p.Criterion != "" {
+		s += " (" + p.Criterion + ")"
+	}
+	return s
 }
 
 // dirExists reports an error if the directory that would hold path is

@@ -1,0 +1,93 @@
+package main
+
+const mapHelp = `gainscape map — the stable region of a loop in the plane of two controller parameters
+
+The loop is unity negative feedback around plant G(s) with controller C(s).
+Every grid node gets the number of closed-loop roots in the right half plane
+from the Routh sign-array test; edges between regions are refined by
+bisection and labelled with the frequency at which the loop oscillates there.
+
+Plant (one of):
+  --plant EXPR        rational expression in s: numbers, + - * / ^ ( )
+                        --plant "2.5*(s+0.4)/(s*(s+1.5)^2*(0.2*s+1))"
+  --num LIST --den LIST
+                      coefficients, highest power first
+                        --num "1" --den "1, 3, 3, 1"
+Controller:
+  --ctrl NAME         p, pi, pd, pid, lead, lag, leadlag (default pid)
+                        --ctrl pi
+                      p:  kp                 pi: kp, ki        pd: kp, kd
+                      pid: kp, ki, kd, tau (C = kp + ki/s + kd·s/(tau·s+1))
+                      lead, lag: k, z, p (C = k(s+z)/(s+p))
+                      leadlag: k, z1, p1, z2, p2
+  --set LIST          values of the parameters that are not axes
+                        --set kd=0.5,tau=0.02
+Window:
+  --x NAME=MIN:MAX    horizontal axis (default kp=0:10)
+                        --x kp=0:20
+  --y NAME=MIN:MAX    vertical axis (default ki=0:5)
+                        --y ki=0:8
+  --grid NXxNY        nodes per axis, 2…4000 each (default 300x225)
+                        --grid 400x300
+  --workers N         goroutines (default: all cores); the map does not
+                      depend on it
+                        --workers 1
+Output:
+  -o, --out FILE      image, .png or .svg (default gainscape-map.png);
+                      - writes the image to standard output
+                        -o pump-pid.svg
+  --format png|svg    image format when the extension does not say
+                        -o - --format svg > map.svg
+  --data FILE         the map as JSON: axes, counts, boundaries with ω
+                        --data region.json
+  --csv FILE          the boundary polylines: curve, kind, x, y, ω
+                        --csv edges.csv
+  --note FILE         a Markdown block for a design note: image link, loop,
+                      stable ranges and the caution
+                        --note design-note.md
+  --title TEXT        replaces the plant-and-controller title
+                        --title "Pressure loop, PID with kd = 0.5"
+  --size WxH          image size in centimetres (default 16x12)
+                        --size 18x13
+  --quiet             print nothing but errors (and no progress bar)
+                        --quiet
+Overlays (inside the stable region):
+  --decay             shade by decay rate σ, the distance of the slowest
+                      closed-loop root from the imaginary axis
+                        --decay
+  --decay-levels LIST iso-lines of decay rate
+                        --decay-levels 0.2,0.4
+  --damping-levels LIST
+                      iso-lines of the smallest damping ratio ζ
+                        --damping-levels 0.5,0.7
+  --ms-levels LIST    iso-lines of Ms, the peak sensitivity (default 1.4,2;
+                      the usual robustness band, common practice); none
+                      turns them off
+                        --ms-levels 1.6  or  --ms-levels none
+  --mark LIST         mark a design point, labelled with its σ and Ms;
+                      repeatable
+                        --mark kp=2,ki=0.8 --mark kp=4,ki=1.5
+  --best LIST         search for best points: decay (largest decay rate) and
+                      ki (largest integral gain with Ms ≤ --ms-bound)
+                        --best decay,ki
+  --ms-bound X        the Ms limit of the ki search (0 = the default 1.4)
+                        --ms-bound 1.6
+Scenario files:
+  --scenario FILE     read the map from a scenario file (TOML); flags given
+                      on the command line override it
+                        --scenario examples/heated-tank.toml
+  --save-scenario FILE
+                      write the scenario of this map, to re-make it exactly
+                        --save-scenario figure-3.toml
+
+With no plant flag, a built-in demo scenario (an invented pump pressure loop)
+is drawn into gainscape-demo.png in the current directory.
+
+Examples:
+  gainscape map
+  gainscape map --plant "1/(s+1)^3" --ctrl pi --x kp=0:8 --y ki=0:3 -o pi.png
+  gainscape map --num "4" --den "0.5, 2.5, 3, 1" --ctrl pid --set kd=0.3,tau=0.05 \
+      --x kp=0:15 --y ki=0:10 --grid 400x300 -o pid.svg --data pid.json
+  gainscape map --plant "1/(s+1)^3" --ctrl pi --decay --best decay,ki --mark kp=1,ki=0.4
+  gainscape map --scenario examples/heated-tank.toml -o tank.svg
+`
