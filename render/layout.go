@@ -11,6 +11,8 @@ import (
 	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
+
+	"gainscape/regions/isoline"
 )
 
 // The page is laid out as a header (title and notes) across the top, the
@@ -171,9 +173,11 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale) *plot.Plot {
 	for i, cs := range f.Contours {
 		set := isoSet{name: cs.Name}
 		for _, level := range cs.Levels {
-			lines := isoLines(cs.Field, level)
-			for _, l := range lines {
-				p.Add(plotOnly{&plotter.Line{XYs: l, LineStyle: contourStyle(i)}})
+			traced := isoline.Trace(cs.Field.XAxis, cs.Field.YAxis, cs.Field.Values, level)
+			lines := make([]plotter.XYs, len(traced))
+			for k, l := range traced {
+				lines[k] = lineXYs(l)
+				p.Add(plotOnly{&plotter.Line{XYs: lines[k], LineStyle: contourStyle(i)}})
 			}
 			set.levels = append(set.levels, isoLevel{level, lines})
 		}
@@ -194,4 +198,13 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale) *plot.Plot {
 	p.Add(lines...)
 	p.Add(ann)
 	return p
+}
+
+// lineXYs converts an iso-line to the point list gonum/plot draws.
+func lineXYs(l isoline.Line) plotter.XYs {
+	xys := make(plotter.XYs, len(l))
+	for k, p := range l {
+		xys[k].X, xys[k].Y = p[0], p[1]
+	}
+	return xys
 }

@@ -136,14 +136,13 @@ func (l line) complexCandidates() []candidate {
 	if err != nil {
 		return nil
 	}
-	dq := q.Derivative()
 	var cs []candidate
 	for _, r := range roots {
 		u := real(r)
 		if u <= 0 || math.Abs(imag(r)) > nearReal*cmplx.Abs(r) {
 			continue
 		}
-		u = polishReal(q, dq, u)
+		u = q.PolishReal(u)
 		if !(u > 0) {
 			continue
 		}
@@ -218,24 +217,6 @@ func absEval(p poly.Poly, w float64) float64 {
 
 func sq(x float64) float64 { return x * x }
 
-// polishReal improves a real root u of q by Newton's method, keeping the
-// last iterate that reduced |q|.
-func polishReal(q, dq poly.Poly, u float64) float64 {
-	best := math.Abs(q.EvalReal(u))
-	for it := 0; it < 8 && best > 0; it++ {
-		d := dq.EvalReal(u)
-		if d == 0 {
-			break
-		}
-		next := u - q.EvalReal(u)/d
-		v := math.Abs(q.EvalReal(next))
-		if !(v < best) {
-			break
-		}
-		u, best = next, v
-	}
-	return u
-}
 
 // tester decides stability of polynomials of one length with the sign
 // array, reusing its buffers.

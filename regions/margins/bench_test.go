@@ -56,16 +56,6 @@ func stableCharPolys(n int) []poly.Poly {
 	return ps
 }
 
-func benchSignTest(b *testing.B, n int) {
-	ps := stableCharPolys(n)
-	work := make([]float64, DecayWorkLen(n))
-	b.ReportAllocs()
-	for i := 0; b.Loop(); i++ {
-		DecayBySignTest(ps[i&255], work)
-	}
-	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "nodes/s")
-}
-
 func benchEigenDecay(b *testing.B, n int) {
 	ps := stableCharPolys(n)
 	b.ReportAllocs()
@@ -80,9 +70,6 @@ func benchEigenDecay(b *testing.B, n int) {
 }
 
 // Decay rate per node by the two routes, on the same polynomials.
-func BenchmarkDecaySignTestDegree3(b *testing.B)  { benchSignTest(b, 3) }
 func BenchmarkDecayEigenDegree3(b *testing.B)     { benchEigenDecay(b, 3) }
-func BenchmarkDecaySignTestDegree5(b *testing.B)  { benchSignTest(b, 5) }
 func BenchmarkDecayEigenDegree5(b *testing.B)     { benchEigenDecay(b, 5) }
-func BenchmarkDecaySignTestDegree10(b *testing.B) { benchSignTest(b, 10) }
 func BenchmarkDecayEigenDegree10(b *testing.B)    { benchEigenDecay(b, 10) }

@@ -18,8 +18,9 @@
 //     Finite tells them apart and Nullable turns them into a nil pointer,
 //     which encodes as null. Margins implements json.Marshaler that way.
 //
-// Two routes to the decay rate are offered: DecayRate(Poles(p)) from
-// gonum's eigenvalues, and DecayBySignTest, a bisection on the Routh sign
-// array of the shifted polynomial that allocates nothing. For per-node map
-// overlays of Ms there is MsEvaluator, built once per grid of frequencies.
+// The decay rate of one design point is DecayRate(Poles(p)), from gonum's
+// eigenvalues; over a whole map, package overlay finds it without
+// allocating by bisection on the sign array of the shifted polynomial.
+// For per-node map overlays of Ms there is MsEvaluator, built once per
+// grid of frequencies.
 package margins

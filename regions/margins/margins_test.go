@@ -284,7 +284,7 @@ func exactCrossings(t *testing.T, num, den poly.Poly) (phase, gain []float64) {
 		var ws []float64
 		for _, x := range xs {
 			if real(x) > 0 && math.Abs(imag(x)) <= 1e-9*cmplx.Abs(x) {
-				ws = append(ws, math.Sqrt(polishReal(q, q.Derivative(), real(x))))
+				ws = append(ws, math.Sqrt(q.PolishReal(real(x))))
 			}
 		}
 		slices.Sort(ws)

@@ -33,7 +33,7 @@ func Poles(char poly.Poly) ([]complex128, error) {
 // DecayRate returns −max Re(p) over the poles: the exponential rate at
 // which the slowest mode decays, positive when every pole is in the open
 // left half plane, zero or negative otherwise. With no poles it returns
-// +Inf (the minimum over an empty set), which matches DecayBySignTest on a
+// +Inf (the minimum over an empty set), which matches the shifted sign test of package overlay on a
 // constant polynomial.
 func DecayRate(poles []complex128) float64 {
 	d := math.Inf(1)

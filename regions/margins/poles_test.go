@@ -29,7 +29,6 @@ func TestPolesFromRoots(t *testing.T) {
 	}
 	check(t, "decay rate", DecayRate(got), 0.5, 1e-12)
 	check(t, "min damping", MinDamping(got), 0.5/math.Sqrt(16.25), 1e-12)
-	check(t, "decay by sign test", DecayBySignTest(c, nil), 0.5, 1e-10)
 }
 
 func TestDampingSpecialCases(t *testing.T) {

@@ -60,12 +60,11 @@ func Ultimate(plantNum, plantDen poly.Poly) (ku, tu float64, ok bool) {
 	if qx.Degree() > 0 {
 		xs, err := qx.Roots()
 		if err == nil {
-			dq := qx.Derivative()
 			for _, x := range xs {
 				if real(x) <= 0 || math.Abs(imag(x)) > 1e-7*cmplx.Abs(x) {
 					continue
 				}
-				w := math.Sqrt(polishReal(qx, dq, real(x)))
+				w := math.Sqrt(qx.PolishReal(real(x)))
 				a, b := evalJW(den, w)
 				c, d := evalJW(num, w)
 				n2 := c*c + d*d
@@ -150,24 +149,6 @@ func splitJW(p poly.Poly) (re, im poly.Poly) {
 	return re, im
 }
 
-// polishReal improves a real root x of p by Newton's method, keeping the
-// last iterate that reduced |p|.
-func polishReal(p, dp poly.Poly, x float64) float64 {
-	best := math.Abs(p.EvalReal(x))
-	for it := 0; it < 8 && best > 0; it++ {
-		d := dp.EvalReal(x)
-		if d == 0 {
-			break
-		}
-		nx := x - p.EvalReal(x)/d
-		v := math.Abs(p.EvalReal(nx))
-		if !(v < best) {
-			break
-		}
-		x, best = nx, v
-	}
-	return x
-}
 
 // stabilityTester decides whether D + k·N is Hurwitz.
 type stabilityTester struct {

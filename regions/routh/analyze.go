@@ -3,7 +3,6 @@ package routh
 import (
 	"fmt"
 	"math"
-	"math/cmplx"
 	"sort"
 	"strconv"
 
@@ -321,9 +320,8 @@ func axisFrequencies(a, q poly.Poly, pairs int) []float64 {
 		return math.Abs(real(roots[i])) < math.Abs(real(roots[j]))
 	})
 	om := make([]float64, 0, 2*pairs)
-	dq := q.Derivative()
 	for _, r := range roots[:min(len(roots), 2*pairs)] {
-		om = append(om, math.Abs(imag(polish(q, dq, r))))
+		om = append(om, math.Abs(imag(q.Polish(r))))
 	}
 	sort.Float64s(om)
 	// Repeated pairs appear once; roots of a repeated factor are found to
@@ -337,24 +335,6 @@ func axisFrequencies(a, q poly.Poly, pairs int) []float64 {
 	return out
 }
 
-// polish improves an approximate root r of q by Newton's method, keeping r
-// if an iteration fails to reduce |q|.
-func polish(q, dq poly.Poly, r complex128) complex128 {
-	best := cmplx.Abs(q.Eval(r))
-	for it := 0; it < 8 && best > 0; it++ {
-		d := dq.Eval(r)
-		if d == 0 {
-			break
-		}
-		next := r - q.Eval(r)/d
-		v := cmplx.Abs(q.Eval(next))
-		if !(v < best) {
-			break
-		}
-		r, best = next, v
-	}
-	return r
-}
 
 // formatTerm writes v·ε^o compactly for reports.
 func formatTerm(v float64, o int) string {

@@ -117,5 +117,5 @@ func auxOmega(aux, p poly.Poly) float64 {
 			bestRe, pick = math.Abs(real(r)), r
 		}
 	}
-	return math.Abs(imag(polish(p, p.Derivative(), complex(0, math.Abs(imag(pick))))))
+	return math.Abs(imag(p.Polish(complex(0, math.Abs(imag(pick))))))
 }
