@@ -217,7 +217,6 @@ func absEval(p poly.Poly, w float64) float64 {
 
 func sq(x float64) float64 { return x * x }
 
-
 // tester decides stability of polynomials of one length with the sign
 // array, reusing its buffers.
 type tester struct {

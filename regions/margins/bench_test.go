@@ -70,6 +70,6 @@ func benchEigenDecay(b *testing.B, n int) {
 }
 
 // Decay rate per node by the two routes, on the same polynomials.
-func BenchmarkDecayEigenDegree3(b *testing.B)     { benchEigenDecay(b, 3) }
-func BenchmarkDecayEigenDegree5(b *testing.B)     { benchEigenDecay(b, 5) }
-func BenchmarkDecayEigenDegree10(b *testing.B)    { benchEigenDecay(b, 10) }
+func BenchmarkDecayEigenDegree3(b *testing.B)  { benchEigenDecay(b, 3) }
+func BenchmarkDecayEigenDegree5(b *testing.B)  { benchEigenDecay(b, 5) }
+func BenchmarkDecayEigenDegree10(b *testing.B) { benchEigenDecay(b, 10) }

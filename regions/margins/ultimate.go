@@ -149,7 +149,6 @@ func splitJW(p poly.Poly) (re, im poly.Poly) {
 	return re, im
 }
 
-
 // stabilityTester decides whether D + k·N is Hurwitz.
 type stabilityTester struct {
 	num, den poly.Poly

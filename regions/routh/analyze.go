@@ -335,7 +335,6 @@ func axisFrequencies(a, q poly.Poly, pairs int) []float64 {
 	return out
 }
 
-
 // formatTerm writes v·ε^o compactly for reports.
 func formatTerm(v float64, o int) string {
 	num := strconv.FormatFloat(v, 'g', 6, 64)
