@@ -13,6 +13,7 @@ import (
 	"gainscape/regions/export"
 	"gainscape/regions/family"
 	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
 	"gainscape/regions/margins"
 	"gainscape/regions/overlay"
 	"gainscape/regions/plane"
@@ -237,7 +238,17 @@ func dataOf(res *mapResult, sc scenario.Scenario, plant string) *export.Region {
 		if v == nil {
 			return
 		}
-		layers[name] = map[string]any{"values": rowsOf(v, g.XAxis.N, g.YAxis.N), "levels": nonNil(levels)}
+		// The iso-lines are traced by the same routine the image uses, so
+		// the data hold exactly the lines drawn.
+		contours := []map[string]any{}
+		for _, level := range levels {
+			lines := isoline.Trace(g.XAxis, g.YAxis, v, level)
+			if lines == nil {
+				lines = []isoline.Line{}
+			}
+			contours = append(contours, map[string]any{"level": level, "lines": lines})
+		}
+		layers[name] = map[string]any{"values": rowsOf(v, g.XAxis.N, g.YAxis.N), "levels": nonNil(levels), "contours": contours}
 	}
 	add("decay_rate", g.Decay, ov.DecayLevels)
 	add("min_damping", g.Damping, ov.DampingLevels)
