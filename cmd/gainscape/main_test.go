@@ -69,6 +69,16 @@ func TestBadInputs(t *testing.T) {
 		{"missing data directory", []string{"--plant", "1/(s+1)", "--data", "nowhere/m.json"}, []string{"--data", "nowhere"}},
 		{"unknown flag", []string{"--plnt", "1/(s+1)"}, []string{"plnt"}},
 		{"negative workers", []string{"--plant", "1/(s+1)", "--workers", "-2"}, []string{"--workers", "-2"}},
+		{"NaN fixed value", []string{"--plant", "1/(s+1)", "--set", "kd=NaN"}, []string{"--set", "NaN"}},
+		{"infinite axis end", []string{"--plant", "1/(s+1)", "--x", "kp=0:Inf"}, []string{"--x", "finite"}},
+		{"overflowing plant", []string{"--plant", "1e400/(s+1)"}, []string{"--plant"}},
+		{"unknown best search", []string{"--plant", "1/(s+1)", "--best", "fastest"}, []string{"--best", "fastest"}},
+		{"mark off the plane", []string{"--plant", "1/(s+1)", "--ctrl", "pi", "--mark", "kp=1"}, []string{"--mark", "ki"}},
+		{"bad size", []string{"--plant", "1/(s+1)", "--size", "1600x1200"}, []string{"--size"}},
+		{"bad format", []string{"--plant", "1/(s+1)", "-o", "-", "--format", "gif"}, []string{"--format", "gif"}},
+		{"bad level list", []string{"--plant", "1/(s+1)", "--ms-levels", "1.4,two"}, []string{"--ms-levels", "two"}},
+		{"scenario directory missing", []string{"--plant", "1/(s+1)", "--save-scenario", "nowhere/s.toml"}, []string{"--save-scenario", "nowhere"}},
+		{"extra argument", []string{"--plant", "1/(s+1)", "stray"}, []string{"stray"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -90,6 +100,19 @@ func TestBadInputs(t *testing.T) {
 				t.Errorf("files left behind: %v", entries)
 			}
 		})
+	}
+}
+
+// TestScalingWarning: coefficients spanning hundreds of decades draw a
+// warning on stderr but still produce a map.
+func TestScalingWarning(t *testing.T) {
+	_, stderr, code := runBinary(t, t.TempDir(), "map", "--plant", "1e-120/(s+1e-60)^3", "--ctrl", "pi", "--grid", "20x20", "-o", "w.png", "--quiet")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	_, stderr, _ = runBinary(t, t.TempDir(), "map", "--plant", "1e-120/(s+1e-60)^3", "--ctrl", "pi", "--grid", "20x20", "-o", "w.png")
+	if !strings.Contains(stderr, "warning") || !strings.Contains(stderr, "rescaling") {
+		t.Fatalf("no scaling warning: %q", stderr)
 	}
 }
 
