@@ -267,6 +267,12 @@ func Analyze(p poly.Poly) Report {
 // sensitivity. The pattern is a fixed function of i, so results are
 // reproducible.
 func perturb(v float64, i int, scale float64) samples {
+	if v == 0 {
+		// An exact zero is a term the model does not have (a missing
+		// power of s), not a rounded value: perturbing it would hide
+		// the zero first-column entries it causes from the ε rule.
+		return samples{}
+	}
 	d := perturbSize * scale
 	// Two fixed pseudo-random factors in [0.5, 1) with signs, from i.
 	h := uint32(i)*2654435761 + 12345
