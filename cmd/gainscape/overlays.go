@@ -17,6 +17,7 @@ import (
 	"gainscape/regions/margins"
 	"gainscape/regions/overlay"
 	"gainscape/regions/plane"
+	"gainscape/regions/poly"
 	"gainscape/regions/scenario"
 	"gainscape/regions/spec"
 	"gainscape/render"
@@ -119,7 +120,15 @@ func msEvaluator(job plane.Setup) (*margins.MsEvaluator, error) {
 	centre := job.With(job.XIndex, 0.5*(job.X.Min+job.X.Max), job.YIndex, 0.5*(job.Y.Min+job.Y.Max))
 	cn, cd := centre.Family.Controller(centre.Values)
 	lo, hi := margins.NewLoop(centre.PlantNum, centre.PlantDen, cn, cd).FrequencyRange()
-	return margins.NewMsEvaluator(lo, hi, margins.DefaultMsPerDecade, overlay.OpenLoopLen(job), margins.DefaultMsSteps)
+	// The plant's own resonances are the same at every node; the grid is
+	// enriched around them so that no narrow peak of |S| is missed.
+	var roots []complex128
+	for _, p := range []poly.Poly{centre.PlantNum, centre.PlantDen} {
+		if r, err := p.Trim(0).Roots(); err == nil {
+			roots = append(roots, r...)
+		}
+	}
+	return margins.NewMsEvaluatorNear(lo, hi, margins.DefaultMsPerDecade, overlay.OpenLoopLen(job), margins.DefaultMsSteps, roots)
 }
 
 // markPoint places a --mark in the plane: it must give both axis

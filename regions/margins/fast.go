@@ -58,15 +58,28 @@ const (
 // the peak with steps golden-section steps. Each step shrinks the bracket
 // (two grid spacings) by 0.618.
 func NewMsEvaluator(wmin, wmax float64, perDecade, maxLen, steps int) (*MsEvaluator, error) {
+	return NewMsEvaluatorNear(wmin, wmax, perDecade, maxLen, steps, nil)
+}
+
+// NewMsEvaluatorNear is NewMsEvaluator with the grid enriched near every
+// lightly damped root in roots (damping below 0.3), as Margins enriches
+// its own: a resonance of the plant puts a peak in |S| narrower than any
+// affordable logarithmic spacing, and a grid that misses it reports too
+// small an Ms. Pass the roots of the plant's numerator and denominator.
+func NewMsEvaluatorNear(wmin, wmax float64, perDecade, maxLen, steps int, roots []complex128) (*MsEvaluator, error) {
 	if !(wmin > 0 && wmax > wmin && !math.IsInf(wmax, 0)) {
 		return nil, fmt.Errorf("margins: Ms grid needs 0 < wmin < wmax < Inf, have [%g, %g]", wmin, wmax)
 	}
 	if perDecade < 1 || maxLen < 1 || steps < 0 {
 		return nil, fmt.Errorf("margins: Ms grid needs perDecade ≥ 1, maxLen ≥ 1, steps ≥ 0")
 	}
-	n := max(int(math.Ceil(math.Log10(wmax/wmin)*float64(perDecade)))+1, 3)
+	w := enrichedGrid(wmin, wmax, perDecade, roots)
+	if len(w) < 3 {
+		w = logGrid(wmin, wmax, 3)
+	}
+	n := len(w)
 	e := &MsEvaluator{
-		w:      logGrid(wmin, wmax, n),
+		w:      w,
 		lw:     make([]float64, n),
 		pw:     make([]float64, n*maxLen),
 		stride: maxLen,

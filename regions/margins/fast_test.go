@@ -124,3 +124,32 @@ func TestMsEvaluatorErrors(t *testing.T) {
 	}()
 	ev.Ms(p(1), p(1, 2, 3))
 }
+
+// TestMsEvaluatorNearResonance: a plant resonance with damping 0.004
+// puts a peak in |S| far narrower than 40 points per decade. Without the
+// plant roots the grid may miss it; with them the fast value must agree
+// with Margins (whose scan is enriched the same way and refined) to 1e-3.
+// The loop is invented: L = 30(s+2)/((s+1)(s² + 0.08s + 100)) under a
+// gain of 0.1, stable (checked by the poles below).
+func TestMsEvaluatorNearResonance(t *testing.T) {
+	num := poly.Poly{6, 3}
+	den := poly.Mul(poly.Poly{1, 1}, poly.Poly{100, 0.08, 1})
+	l := Loop{Num: num, Den: den}
+	poles, err := Poles(l.Characteristic())
+	if err != nil || DecayRate(poles) <= 0 {
+		t.Fatalf("test loop not stable: %v %v", poles, err)
+	}
+	full, err := l.Margins()
+	if err != nil {
+		t.Fatal(err)
+	}
+	roots, _ := den.Roots()
+	nr, _ := num.Roots()
+	ev, err := NewMsEvaluatorNear(1e-3, 1e3, DefaultMsPerDecade, 4, DefaultMsSteps, append(roots, nr...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := ev.Ms(num, den); math.Abs(got-full.Ms) > 1e-3*full.Ms {
+		t.Fatalf("fast Ms %.6g; refined %.6g", got, full.Ms)
+	}
+}

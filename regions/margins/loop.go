@@ -114,14 +114,20 @@ func logGrid(lo, hi float64, points int) []float64 {
 }
 
 // scanGrid returns the frequencies Margins evaluates: a logarithmic grid of
-// perDecade points per decade over [lo, hi], enriched near every lightly
+// perDecade points per decade over [lo, hi], enriched as enrichedGrid does.
+func scanGrid(lo, hi float64, roots []complex128) []float64 {
+	return enrichedGrid(lo, hi, perDecade, roots)
+}
+
+// enrichedGrid returns a logarithmic grid of pd points per decade over
+// [lo, hi], enriched near every lightly
 // damped root r (damping below 0.3) with points Im r + h·t for
 // t ∈ {±0.25, ±0.5, ±1, ±2, ±4, ±8}, h = max(|Re r|, 1e-3·|r|), so that
 // resonant peaks and the rapid phase swings they cause are bracketed even
 // when they are narrower than the grid spacing.
-func scanGrid(lo, hi float64, roots []complex128) []float64 {
+func enrichedGrid(lo, hi float64, pd int, roots []complex128) []float64 {
 	decades := math.Log10(hi / lo)
-	n := max(int(math.Ceil(decades*perDecade))+1, 2)
+	n := max(int(math.Ceil(decades*float64(pd)))+1, 2)
 	w := logGrid(lo, hi, n)
 	ts := [...]float64{0.25, 0.5, 1, 2, 4, 8}
 	for _, r := range roots {

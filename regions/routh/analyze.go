@@ -3,6 +3,7 @@ package routh
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 	"sort"
 	"strconv"
 
@@ -154,7 +155,9 @@ func Analyze(p poly.Poly) Report {
 		power := m - k
 		if allZero(row) {
 			for _, e := range row {
-				rowDoubt = rowDoubt || e.doubtful
+				// Only the first all-zero row decides counts; rows below
+				// it merely display the continued array.
+				rowDoubt = rowDoubt || (auxRow < 0 && e.doubtful)
 			}
 			// All-zero row: the row above holds the auxiliary polynomial
 			// A(s) = Σ α_j s^(power+1−2j), an even or odd factor of q whose
@@ -208,7 +211,11 @@ func Analyze(p poly.Poly) Report {
 		rep.Undecided, rep.Reason = true, "the sign array overflows double precision"
 		return rep
 	}
-	for _, row := range rows {
+	deciding := rows
+	if auxRow >= 0 {
+		deciding = rows[:auxRow+1]
+	}
+	for _, row := range deciding {
 		if row[0].doubtful || rowDoubt {
 			rep.Undecided = true
 			rep.Reason = "a first-column entry of the sign array has no significant digits: the polynomial is too close to a boundary, or too ill-conditioned, to decide in double precision"
@@ -240,21 +247,75 @@ func Analyze(p poly.Poly) Report {
 
 	rep.JW = rep.ZeroRoots
 	if auxRow >= 0 {
+		// Rows down to the auxiliary polynomial A count the right-half-plane
+		// roots of the other factor. A itself has roots symmetric about
+		// both axes; how many lie on the imaginary axis is read from its
+		// roots (A(s) = g(s²), and s is on the axis where u = s² is real and
+		// negative), and half of the rest lie in the right half plane. This
+		// is what the continued array says too, but the continuation can
+		// need the ε rule again, which is unreliable in the presence of
+		// imaginary-axis roots; the roots of A are not.
 		rep.Aux = unbalance(aux, rho)
-		below := 0
-		for k := auxRow + 1; k <= m; k++ {
-			below += changes[k]
+		above := 0
+		for k := 1; k <= auxRow; k++ {
+			above += changes[k]
 		}
-		rep.JW += len(aux) - 1 - 2*below
-		rep.Omegas = axisFrequencies(aux, q, (len(aux)-1-2*below)/2)
-		for i := range rep.Omegas {
-			rep.Omegas[i] *= rho
+		omegas, jw, ok := axisRoots(aux, q)
+		if !ok {
+			rep.Undecided, rep.Reason = true, "the roots of the auxiliary polynomial could not be found"
+			return rep
 		}
+		rep.RHP = above + (len(aux)-1-jw)/2
+		rep.JW += jw
+		for i := range omegas {
+			omegas[i] *= rho
+		}
+		rep.Omegas = omegas
 	}
 	if rep.ZeroRoots > 0 {
 		rep.Omegas = append([]float64{0}, rep.Omegas...)
 	}
+	if rep.RHP+rep.JW > rep.Degree-rep.DegreeDrop {
+		rep.Undecided, rep.Reason = true, "the special cases of the sign array gave inconsistent counts"
+	}
 	return rep
+}
+
+// axisTol is how far, relative to its size, a root u of g(u) = A(s) with
+// u = s² may stray from the negative real axis and still be taken for a
+// pair of imaginary-axis roots. A root of multiplicity k is found to about
+// the k-th root of machine precision; 1e-5 covers double and triple pairs.
+const axisTol = 1e-5
+
+// axisRoots returns the distinct frequencies, ascending, of the
+// imaginary-axis roots of the even auxiliary polynomial a, and their
+// number counted with multiplicity. The values are polished by Newton's
+// method on q, of which a is a factor, because rows far down an
+// ill-conditioned array carry rounding that the coefficients of q do not.
+func axisRoots(a, q poly.Poly) (omegas []float64, count int, ok bool) {
+	g := make(poly.Poly, (len(a)+1)/2)
+	for k := range g {
+		g[k] = a[2*k]
+	}
+	us, err := g.Trim(0).Roots()
+	if err != nil {
+		return nil, 0, false
+	}
+	var om []float64
+	for _, u := range us {
+		if real(u) < 0 && math.Abs(imag(u)) <= axisTol*cmplx.Abs(u) {
+			count += 2
+			w := math.Sqrt(-real(u))
+			om = append(om, math.Abs(imag(q.Polish(complex(0, w)))))
+		}
+	}
+	sort.Float64s(om)
+	for _, v := range om {
+		if len(omegas) == 0 || v-omegas[len(omegas)-1] > 1e-6*math.Max(1, v) {
+			omegas = append(omegas, v)
+		}
+	}
+	return omegas, count, true
 }
 
 // perturb returns the three CESTAC samples of input coefficient v (the
@@ -305,40 +366,6 @@ func allZero(row []series) bool {
 		}
 	}
 	return true
-}
-
-// axisFrequencies returns the distinct frequencies, ascending, of the
-// imaginary-axis pairs of the auxiliary polynomial a. How many pairs there
-// are comes from the sign array; their values come from the roots of a
-// (gonum eigenvalues), taking the 2·pairs roots nearest the axis, each
-// polished by Newton's method on the whole polynomial q, of which a is a
-// factor, because rows far down an ill-conditioned array carry rounding
-// that the original coefficients do not.
-func axisFrequencies(a, q poly.Poly, pairs int) []float64 {
-	if pairs <= 0 {
-		return nil
-	}
-	roots, err := a.Roots()
-	if err != nil {
-		return nil
-	}
-	sort.Slice(roots, func(i, j int) bool {
-		return math.Abs(real(roots[i])) < math.Abs(real(roots[j]))
-	})
-	om := make([]float64, 0, 2*pairs)
-	for _, r := range roots[:min(len(roots), 2*pairs)] {
-		om = append(om, math.Abs(imag(q.Polish(r))))
-	}
-	sort.Float64s(om)
-	// Repeated pairs appear once; roots of a repeated factor are found to
-	// about the square root of machine precision, hence the tolerance.
-	out := om[:0]
-	for _, v := range om {
-		if len(out) == 0 || v-out[len(out)-1] > 1e-6*math.Max(1, v) {
-			out = append(out, v)
-		}
-	}
-	return out
 }
 
 // formatTerm writes v·ε^o compactly for reports.

@@ -26,7 +26,7 @@ type Crossing struct {
 // ClassifyCrossing looks at p, a characteristic polynomial found by
 // bisection to lie very close to a stability boundary, and says how its
 // roots cross there. The constant and leading coefficients are measured
-// relative to the largest coefficient; each row of the regular sign array
+// against their neighbours (see endSize); each row of the regular sign array
 // by the ratio of its largest entry to the size of the terms that formed it
 // (how completely it cancelled). The smallest of these names the crossing.
 // For a row, the auxiliary polynomial of the row above gives ω, polished by
@@ -42,8 +42,8 @@ func ClassifyCrossing(p poly.Poly) Crossing {
 		n--
 	}
 	best := Crossing{Vanishing: "constant", Omega: 0}
-	bestSize := math.Abs(p[0]) / scale
-	if s := math.Abs(p[len(p)-1]) / scale; s < bestSize {
+	bestSize := endSize(p, 0, scale)
+	if s := endSize(p, len(p)-1, scale); s < bestSize {
 		best, bestSize = Crossing{Vanishing: "leading", Omega: math.NaN()}, s
 	}
 	q := p[:n+1]
@@ -118,4 +118,28 @@ func auxOmega(aux, p poly.Poly) float64 {
 		}
 	}
 	return math.Abs(imag(p.Polish(complex(0, math.Abs(imag(pick))))))
+}
+
+// endSize measures how nearly the end coefficient p[k] (k = 0 or the last)
+// vanishes, on a scale that does not depend on how fast the loop is. The
+// root scale ρ = (|p1|/|pn−1|)^(1/(n−2)) is taken from the inner
+// coefficients alone, so that neither vanishing end distorts it; a
+// coefficient that is not vanishing then has |p0| ≈ |p1|·ρ and
+// |pn|·ρ ≈ |pn−1|, a ratio of order one whatever the time scale, and the
+// ratio falls in proportion to the distance from a boundary where that
+// coefficient vanishes. Comparing with the largest coefficient instead
+// would call the leading coefficient of a fast loop (roots near 1e4)
+// vanishing everywhere. Below degree 3, or where an inner coefficient is
+// zero, there is no inner scale and it falls back to scale, the largest
+// coefficient.
+func endSize(p poly.Poly, k int, scale float64) float64 {
+	n := len(p) - 1
+	if n < 3 || p[1] == 0 || p[n-1] == 0 {
+		return math.Abs(p[k]) / scale
+	}
+	rho := math.Pow(math.Abs(p[1])/math.Abs(p[n-1]), 1/float64(n-2))
+	if k == 0 {
+		return math.Abs(p[0]) / (math.Abs(p[1]) * rho)
+	}
+	return math.Abs(p[n]) * rho / math.Abs(p[n-1])
 }
