@@ -109,6 +109,7 @@ type probeReport struct {
 	SignArray      []signRow          `json:"sign_array"`
 	Aux            []float64          `json:"auxiliary_polynomial,omitempty"`
 	Stable         bool               `json:"stable"`
+	CountFrom      string             `json:"count_from"`
 	RHP            int                `json:"rhp"`
 	JW             int                `json:"jw_roots"`
 	JWOmegas       []float64          `json:"jw_omegas"`
@@ -164,6 +165,10 @@ func probePoint(ctx context.Context, loop plane.Loop, f probeFlags) (*probeRepor
 		rep.Aux = ra.Aux.Descending()
 	}
 	rep.RHP, rep.JW, rep.DegreeDrop, rep.Stable = ra.RHP, ra.JW, ra.DegreeDrop, ra.Stable()
+	rep.CountFrom = "sign array"
+	if ra.FromEigenvalues {
+		rep.CountFrom = "eigenvalues"
+	}
 	rep.JWOmegas = append([]float64{}, ra.Omegas...)
 
 	poles, err := margins.Poles(char)
@@ -217,6 +222,10 @@ func printProbe(w io.Writer, r *probeReport) {
 	}
 	if r.Aux != nil {
 		fmt.Fprintf(w, "  auxiliary polynomial A(s) = %s\n", polyText(r.Aux))
+	}
+	if r.CountFrom == "eigenvalues" {
+		fmt.Fprintln(w, "  an entry that decides the count has no significant digit left in double precision;")
+		fmt.Fprintln(w, "  the count below is confirmed from the eigenvalues, all clear of the imaginary axis")
 	}
 	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
 	if len(r.JWOmegas) > 0 {

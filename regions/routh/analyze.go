@@ -61,6 +61,10 @@ type Report struct {
 	Aux poly.Poly
 	// UsedEpsilon and UsedAux say which special cases occurred.
 	UsedEpsilon, UsedAux bool
+	// FromEigenvalues is set when an entry that decides the count had no
+	// significant digit left and the count was confirmed from the
+	// eigenvalues instead (see fromEigenvalues); Rows is then empty.
+	FromEigenvalues bool
 	// Undecided is set when the test cannot give a count (Reason says why).
 	Undecided bool
 	Reason    string
@@ -217,9 +221,7 @@ func Analyze(p poly.Poly) Report {
 	}
 	for _, row := range deciding {
 		if row[0].doubtful || rowDoubt {
-			rep.Undecided = true
-			rep.Reason = "a first-column entry of the sign array has no significant digits: the polynomial is too close to a boundary, or too ill-conditioned, to decide in double precision"
-			return rep
+			return fromEigenvalues(rep, q)
 		}
 	}
 	prev := rows[0][0].sign()
@@ -278,6 +280,41 @@ func Analyze(p poly.Poly) Report {
 	if rep.RHP+rep.JW > rep.Degree-rep.DegreeDrop {
 		rep.Undecided, rep.Reason = true, "the special cases of the sign array gave inconsistent counts"
 	}
+	return rep
+}
+
+// fromEigenvalues settles a polynomial whose sign array lost every digit of
+// an entry that decides the count. Such an entry is zero within the
+// rounding of the coefficients, so the polynomial is within rounding of one
+// whose array has a zero there; the count is the same for both unless a
+// root lies on or next to the imaginary axis. The eigenvalues of the
+// companion matrix say which: if every root keeps a relative distance of
+// more than axisTol from the axis, their count is taken (and the report
+// says so); otherwise the polynomial sits on a boundary within what double
+// precision resolves, and the report is undecided.
+func fromEigenvalues(rep Report, q poly.Poly) Report {
+	rep.Rows = nil
+	roots, err := q.Roots()
+	if err != nil {
+		rep.Undecided, rep.Reason = true, "the sign array lost every digit of a deciding entry, and the eigenvalues could not be found"
+		return rep
+	}
+	rep.RHP = 0
+	for _, r := range roots {
+		if math.Abs(real(r)) <= axisTol*cmplx.Abs(r) {
+			rep.Undecided = true
+			rep.Reason = "a root lies within rounding of the imaginary axis: the loop is on a stability boundary as far as double precision can tell"
+			return rep
+		}
+		if real(r) > 0 {
+			rep.RHP++
+		}
+	}
+	rep.JW = rep.ZeroRoots
+	if rep.ZeroRoots > 0 {
+		rep.Omegas = []float64{0}
+	}
+	rep.FromEigenvalues = true
 	return rep
 }
 
