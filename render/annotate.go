@@ -2,7 +2,6 @@ package render
 
 import (
 	"math"
-	"sort"
 	"strconv"
 
 	"gonum.org/v1/plot"
@@ -53,52 +52,113 @@ type drawnLabel struct {
 	bg    vg.Rectangle
 }
 
-// Plot places and draws marks, ω labels and contour labels.
+// layout is everything the annotations draw, placed in canvas units.
+type layout struct {
+	// labels are the iso-line, ω and mark labels; leaders are the
+	// mark labels that stand off their symbols.
+	labels  []drawnLabel
+	leaders []markLabel
+	symbols []vg.Point
+}
+
+// Plot places and draws the labels, the marks and the frame.
 func (a annotations) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
-	pl := &placer{area: c.Rectangle}
-	marks, labels := a.placeMarks(pl, c, trX, trY)
-	labels = append(labels, a.placeOmegaLabels(pl, trX, trY)...)
-	labels = append(labels, a.placeIsoLabels(pl, trX, trY)...)
-
-	for _, l := range labels {
+	lay := a.place(c.Rectangle, trX, trY)
+	for _, l := range lay.leaders {
+		drawLeader(c, l)
+	}
+	for _, l := range lay.labels {
 		c.FillPolygon(haloColour, rectPoints(l.bg))
 		c.FillText(l.style, l.at, l.text)
 	}
-	for _, pt := range marks {
+	for _, pt := range lay.symbols {
 		drawMark(c, pt)
 	}
 	c.StrokeLines(draw.LineStyle{Color: inkColour, Width: 0.8}, rectPoints(c.Rectangle))
 }
 
+// place lays out the annotations in the data area.
+func (a annotations) place(area vg.Rectangle, trX, trY transform) layout {
+	pl := &placer{area: area}
+	curves := a.curvePaths(pl, trX, trY)
+	levels := a.isoTexts(pl, trX, trY)
+	var lay layout
+	var marks []markText
+	for _, m := range a.fig.Marks {
+		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
+		if inside(vg.Rectangle{Min: pt, Max: pt}, area) {
+			marks = append(marks, markText{at: pt, text: m.Label})
+			lay.symbols = append(lay.symbols, pt)
+			pl.addSymbol(pt)
+		}
+	}
+	lay.labels = placeIsoLabels(pl, levels, lay.symbols)
+	markLabels := placeMarkLabels(pl, marks)
+	lay.labels = append(lay.labels, placeOmegaLabels(pl, curves)...)
+	for _, l := range markLabels {
+		if l.leader {
+			lay.leaders = append(lay.leaders, l)
+		}
+		lay.labels = append(lay.labels, l.drawnLabel)
+	}
+	return lay
+}
+
 // transform maps data units to canvas units along one axis.
 type transform = func(float64) vg.Length
 
-// placeMarks reserves the symbols of the marks inside the plot and then
-// places their labels. It returns the symbol positions and the labels.
-func (a annotations) placeMarks(pl *placer, c draw.Canvas, trX, trY transform) ([]vg.Point, []drawnLabel) {
-	var marks []vg.Point
-	var labels []drawnLabel
-	for _, m := range a.fig.Marks {
-		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
-		if c.Contains(pt) {
-			marks = append(marks, pt)
-			pl.block(grow(vg.Rectangle{Min: pt, Max: pt}, markClear))
+// curvePath is a finite piece of a boundary curve in canvas units.
+type curvePath struct {
+	kind boundary.Kind
+	path []pathPoint
+}
+
+// curvePaths maps the finite pieces of the boundary curves to canvas
+// units and records them in pl as lines labels should not cover.
+func (a annotations) curvePaths(pl *placer, trX, trY transform) []curvePath {
+	var out []curvePath
+	for _, cv := range a.fig.Curves {
+		for _, piece := range finitePieces(cv.Points) {
+			path := canvasPath(piece, trX, trY)
+			pts := make([]vg.Point, len(path))
+			for i, p := range path {
+				pts[i] = p.At
+			}
+			pl.addLine(pts, boundaryCover)
+			out = append(out, curvePath{kind: cv.Kind, path: path})
 		}
 	}
-	for _, m := range a.fig.Marks {
-		pt := vg.Point{X: trX(m.X), Y: trY(m.Y)}
-		if m.Label != "" && c.Contains(pt) {
-			labels = append(labels, placeMarkLabel(pl, pt, m.Label))
+	return out
+}
+
+// isoTexts maps the traced iso-lines to canvas units with their labels
+// and records them in pl.
+func (a annotations) isoTexts(pl *placer, trX, trY transform) []isoText {
+	var out []isoText
+	for _, set := range a.iso {
+		for _, lv := range set.levels {
+			it := isoText{text: set.name + "=" + formatNumber(lv.level)}
+			for _, xys := range lv.lines {
+				if len(xys) < 2 {
+					continue
+				}
+				pts := make([]vg.Point, len(xys))
+				for k, p := range xys {
+					pts[k] = vg.Point{X: trX(p.X), Y: trY(p.Y)}
+				}
+				it.lines = append(it.lines, isoLine{pts: pts, id: pl.addLine(pts, isoCover)})
+			}
+			out = append(out, it)
 		}
 	}
-	return marks, labels
+	return out
 }
 
 // placeOmegaLabels writes ω along every complex-pair edge at intervals
 // of omegaSpacing (at least once where there is room), and "ω=0" once on
 // every real-root edge.
-func (a annotations) placeOmegaLabels(pl *placer, trX, trY transform) []drawnLabel {
+func placeOmegaLabels(pl *placer, curves []curvePath) []drawnLabel {
 	style := centredStyle(labelSize, inkColour)
 	box := func(pt vg.Point, w float64) (vg.Rectangle, bool) {
 		if !finite(w) {
@@ -109,40 +169,22 @@ func (a annotations) placeOmegaLabels(pl *placer, trX, trY transform) []drawnLab
 	zeroBox := func(pt vg.Point, _ float64) (vg.Rectangle, bool) { return box(pt, 0) }
 	inf := vg.Length(math.Inf(1))
 	var labels []drawnLabel
-	for _, cv := range a.fig.Curves {
-		for _, piece := range finitePieces(cv.Points) {
-			path := canvasPath(piece, trX, trY)
-			switch cv.Kind {
-			case boundary.Complex:
-				sites := pl.along(path, omegaSpacing*0.45, omegaSpacing, omegaStep, box)
-				if len(sites) == 0 {
-					// A short edge still gets one label if it has room.
-					sites = pl.along(path, omegaStep, inf, omegaStep, box)
-				}
-				labels = append(labels, toLabels(sites, style, formatOmega)...)
-			case boundary.Real:
-				sites := pl.along(path, pathLength(path)/2, inf, omegaStep, zeroBox)
-				if len(sites) == 0 {
-					sites = pl.along(path, omegaStep, inf, omegaStep, zeroBox)
-				}
-				labels = append(labels, toLabels(sites, style, func(float64) string { return formatOmega(0) })...)
+	for _, cv := range curves {
+		path := cv.path
+		switch cv.kind {
+		case boundary.Complex:
+			sites := pl.along(path, omegaSpacing*0.45, omegaSpacing, omegaStep, box)
+			if len(sites) == 0 {
+				// A short edge still gets one label if it has room.
+				sites = pl.along(path, omegaStep, inf, omegaStep, box)
 			}
-		}
-	}
-	return labels
-}
-
-// placeIsoLabels writes "Name=level" on the lines of every contour set.
-func (a annotations) placeIsoLabels(pl *placer, trX, trY transform) []drawnLabel {
-	style := centredStyle(labelSize, contourColour)
-	var labels []drawnLabel
-	for _, set := range a.iso {
-		for _, lv := range set.levels {
-			txt := set.name + "=" + formatNumber(lv.level)
-			sites := placeOnLines(pl, lv.lines, trX, trY, func(pt vg.Point, _ float64) (vg.Rectangle, bool) {
-				return labelBox(style, txt, pt), true
-			})
-			labels = append(labels, toLabels(sites, style, func(float64) string { return txt })...)
+			labels = append(labels, toLabels(sites, style, formatOmega)...)
+		case boundary.Real:
+			sites := pl.along(path, pathLength(path)/2, inf, omegaStep, zeroBox)
+			if len(sites) == 0 {
+				sites = pl.along(path, omegaStep, inf, omegaStep, zeroBox)
+			}
+			labels = append(labels, toLabels(sites, style, func(float64) string { return formatOmega(0) })...)
 		}
 	}
 	return labels
@@ -155,35 +197,6 @@ func toLabels(sites []site, style text.Style, format func(float64) string) []dra
 		out[i] = drawnLabel{text: format(s.Value), at: s.At, style: style, bg: grow(s.Box, -labelGap)}
 	}
 	return out
-}
-
-// placeOnLines labels one level of a contour set at one or two places:
-// on its longest line that takes a label, at a quarter and three quarters
-// of its length if it is long, else at its middle.
-func placeOnLines(pl *placer, lines []plotter.XYs, trX, trY transform, boxAt boxFunc) []site {
-	paths := make([][]pathPoint, len(lines))
-	for i, l := range lines {
-		paths[i] = make([]pathPoint, len(l))
-		for k, p := range l {
-			paths[i][k] = pathPoint{At: vg.Point{X: trX(p.X), Y: trY(p.Y)}}
-		}
-	}
-	sort.SliceStable(paths, func(i, j int) bool { return pathLength(paths[i]) > pathLength(paths[j]) })
-	probe, _ := boxAt(vg.Point{}, 0)
-	inf := vg.Length(math.Inf(1))
-	for _, path := range paths {
-		l := pathLength(path)
-		var sites []site
-		if l > 6*probe.Size().X {
-			sites = pl.along(path, l/4, l/2, omegaStep, boxAt)
-		} else {
-			sites = pl.along(path, l/2, inf, omegaStep, boxAt)
-		}
-		if len(sites) > 0 {
-			return sites
-		}
-	}
-	return nil
 }
 
 // formatOmega writes a frequency with three significant digits, keeping

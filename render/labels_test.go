@@ -119,13 +119,13 @@ func TestMarkLabelsAvoidEachOther(t *testing.T) {
 	pl := &placer{area: area}
 	// Three marks in a tight row: the second and third labels must move
 	// off the default right-hand position.
-	pts := []vg.Point{{X: 100, Y: 100}, {X: 118, Y: 100}, {X: 136, Y: 100}}
-	for _, pt := range pts {
-		pl.block(grow(vg.Rectangle{Min: pt, Max: pt}, markClear))
+	var marks []markText
+	for _, pt := range []vg.Point{{X: 100, Y: 100}, {X: 118, Y: 100}, {X: 136, Y: 100}} {
+		pl.addSymbol(pt)
+		marks = append(marks, markText{at: pt, text: "design"})
 	}
 	var sites []site
-	for _, pt := range pts {
-		l := placeMarkLabel(pl, pt, "design")
+	for _, l := range placeMarkLabels(pl, marks) {
 		sites = append(sites, site{At: l.at, Box: grow(l.bg, labelGap)})
 	}
 	checkPlaced(t, area, sites)

@@ -62,7 +62,7 @@ func drawFigure(c draw.Canvas, f *Figure) {
 	}
 
 	plotC := draw.Crop(body, 0, -(panelW + panelGap + scaleW), 0, 0)
-	p := buildPlot(f, rc, scale)
+	p, _ := buildPlot(f, rc, scale)
 	p.Draw(plotC)
 	data := p.DataCanvas(plotC)
 	if scale != nil {
@@ -144,8 +144,8 @@ func styleAxis(a *plot.Axis, label string) {
 }
 
 // buildPlot assembles the map: fills, hatching, iso-lines, boundary
-// curves and, last, the labels and marks.
-func buildPlot(f *Figure, rc regionColours, scale *shadeScale) *plot.Plot {
+// curves and, last, the labels and marks, which it also returns.
+func buildPlot(f *Figure, rc regionColours, scale *shadeScale) (*plot.Plot, annotations) {
 	p := plot.New()
 	styleAxis(&p.X, f.XLabel)
 	styleAxis(&p.Y, f.YLabel)
@@ -197,7 +197,7 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale) *plot.Plot {
 	p.Add(halos...)
 	p.Add(lines...)
 	p.Add(ann)
-	return p
+	return p, ann
 }
 
 // lineXYs converts an iso-line to the point list gonum/plot draws.
