@@ -123,8 +123,8 @@ func Analyze(p poly.Poly) Report {
 	}
 	qScales := balancedScales(q)
 
-	overflow, rowDoubt := false, false
-	ar := arith{terms: 3*m + 8, overflow: &overflow}
+	overflow, rowDoubt, judged := false, false, false
+	ar := arith{terms: 3*m + 8, overflow: &overflow, judged: &judged}
 	w := m/2 + 1
 	rows := make([][]series, 0, m+1)
 	for r := 0; r < 2; r++ {
@@ -220,10 +220,13 @@ func Analyze(p poly.Poly) Report {
 		deciding = rows[:auxRow+1]
 	}
 	for _, row := range deciding {
-		if row[0].doubtful || rowDoubt {
+		if row[0].doubtful {
 			return fromEigenvalues(rep, q)
 		}
 	}
+	// A doubtful all-zero row still gives an auxiliary polynomial whose
+	// roots can be counted; the eigenvalues then confirm or overrule it.
+	judged = judged || rowDoubt
 	prev := rows[0][0].sign()
 	changes := make([]int, m+1) // changes[k]: sign changes between rows k-1 and k
 	for k := 1; k <= m; k++ {
@@ -279,7 +282,45 @@ func Analyze(p poly.Poly) Report {
 	}
 	if rep.RHP+rep.JW > rep.Degree-rep.DegreeDrop {
 		rep.Undecided, rep.Reason = true, "the special cases of the sign array gave inconsistent counts"
+		return rep
 	}
+	if judged {
+		return crossCheck(rep, q)
+	}
+	return rep
+}
+
+// crossCheck confirms a count that rests on entries judged zero from the
+// stochastic samples. Such an entry may be a true zero (an imaginary-axis
+// pair, a structural cancellation) or a tiny value that the array, made
+// ill-conditioned by clustered or mirrored roots, cannot resolve. The
+// eigenvalues of the companion matrix tell the two apart: if they show the
+// same number of right-half-plane roots, and as many roots within axisTol
+// of the imaginary axis as the array found on it, the count stands; if
+// they disagree and no root is near the axis, their count is taken;
+// otherwise the report is undecided.
+func crossCheck(rep Report, q poly.Poly) Report {
+	roots, err := q.Roots()
+	if err != nil {
+		rep.Undecided, rep.Reason = true, "the count rests on a judged zero and the eigenvalues could not be found to confirm it"
+		return rep
+	}
+	rhp, near := 0, 0
+	for _, r := range roots {
+		switch {
+		case math.Abs(real(r)) <= axisTol*cmplx.Abs(r):
+			near++
+		case real(r) > 0:
+			rhp++
+		}
+	}
+	if rhp == rep.RHP && near == rep.JW-rep.ZeroRoots {
+		return rep
+	}
+	if near == 0 {
+		return fromEigenvalues(rep, q)
+	}
+	rep.Undecided, rep.Reason = true, "the sign array and the eigenvalues disagree near the imaginary axis"
 	return rep
 }
 

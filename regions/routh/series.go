@@ -72,6 +72,11 @@ type arith struct {
 	terms int
 	// overflow is set when a value in the array is not finite.
 	overflow *bool
+	// judged is set when a coefficient was taken for zero on the evidence
+	// of the samples alone, not as the rounding residue of an exact
+	// cancellation: the count then rests on a judgement that Analyze
+	// cross-checks.
+	judged *bool
 }
 
 // lossLimit is the largest size, relative to the terms that formed it,
@@ -146,6 +151,7 @@ func (ar arith) norm(s series) series {
 			if mean > lossLimit*s.m[i] && i < firstDoubt {
 				firstDoubt = i
 			}
+			*ar.judged = true
 			s.c[i], s.m[i] = samples{}, 0
 		}
 	}
