@@ -13,17 +13,23 @@ test:
 demo: build
 	./bin/gainscape map
 
-# Re-make every image in examples/ from its scenario.
+# Re-make every image in examples/ from its scenario (run from the top
+# directory: the image paths in the scenarios start with examples/).
 examples: build
 	./bin/gainscape map -o examples/demo-pump-pid.png --grid 400x300 --quiet
+	for f in examples/*.toml; do \
+		./bin/gainscape map --scenario "$$f" --quiet || exit 1; \
+	done
 
 bench:
 	$(GO) test -run XXX -bench . -benchtime 2s ./regions/...
 
 # Longer fuzz runs than the few seconds CI gives each target.
 fuzz:
-	$(GO) test -run XXX -fuzz FuzzParse -fuzztime 3m ./regions/expr/
-	$(GO) test -run XXX -fuzz FuzzCount -fuzztime 3m ./regions/routh/
+	$(GO) test -run XXX -fuzz '^FuzzParse$$' -fuzztime 3m ./regions/expr/
+	$(GO) test -run XXX -fuzz '^FuzzParseList$$' -fuzztime 3m ./regions/expr/
+	$(GO) test -run XXX -fuzz '^FuzzCount$$' -fuzztime 3m ./regions/routh/
+	$(GO) test -run XXX -fuzz '^FuzzDecode$$' -fuzztime 3m ./regions/scenario/
 
 check:
 	gofmt -l .
