@@ -387,7 +387,11 @@ func drawLeader(c draw.Canvas, l markLabel) {
 // drawMark draws the design-point symbol: a white disc with a dark ring
 // and a dark centre dot, visible on every fill.
 func drawMark(c draw.Canvas, pt vg.Point) {
+	// Each circle starts with a move to its first point: an arc opening a
+	// path is otherwise written to SVG as a line from nowhere, which
+	// viewers drop.
 	var disc vg.Path
+	disc.Move(vg.Point{X: pt.X + markRadius, Y: pt.Y})
 	disc.Arc(pt, markRadius, 0, 2*math.Pi)
 	disc.Close()
 	c.SetColor(color.White)
@@ -395,6 +399,7 @@ func drawMark(c draw.Canvas, pt vg.Point) {
 	c.SetLineStyle(draw.LineStyle{Color: inkColour, Width: 1.2})
 	c.Stroke(disc)
 	var dot vg.Path
+	dot.Move(vg.Point{X: pt.X + 1.1, Y: pt.Y})
 	dot.Arc(pt, 1.1, 0, 2*math.Pi)
 	dot.Close()
 	c.SetColor(inkColour)

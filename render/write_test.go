@@ -74,6 +74,11 @@ func TestWriteSVG(t *testing.T) {
 			t.Errorf("SVG lacks %q", want)
 		}
 	}
+	// Every path must open with a move: SVG viewers drop a path that
+	// starts with a line or an arc, as the mark circles once did.
+	if strings.Contains(svg, `<path d="L`) || strings.Contains(svg, `<path d="A`) {
+		t.Error("SVG has a path that does not start with a move")
+	}
 	d := xml.NewDecoder(strings.NewReader(svg))
 	for {
 		_, err := d.Token()
