@@ -35,8 +35,10 @@ type nearestEdge struct {
 }
 
 // fragilityWindowSize is how far the searched window reaches on each side
-// of the design point, as a multiple of the larger of |value| and 1.
-const fragilityWindowSize = 1.0
+// of the design point, as a multiple of the larger of |value| and 1: a
+// little more than the value itself, so that a boundary where a gain
+// passes through zero lies inside the window, not on its edge.
+const fragilityWindowSize = 1.25
 
 // fragility maps a window around the design point in the plane of the
 // named parameters (default: the family's first two) and measures the
