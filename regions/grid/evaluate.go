@@ -2,9 +2,6 @@ package grid
 
 import (
 	"context"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
@@ -60,39 +57,20 @@ type Options struct {
 func Evaluate(ctx context.Context, s plane.Setup, opt Options) (*Map, error) {
 	m := NewMap(s.X, s.Y)
 	pencil := s.Pencil()
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.NumCPU()
+	type scratch struct {
+		counter *Counter
+		p       poly.Poly
 	}
-	workers = min(workers, s.Y.N)
-	var next, done atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			counter := NewCounter(pencil.Len())
-			p := make(poly.Poly, pencil.Len())
-			for {
-				j := int(next.Add(1) - 1)
-				if j >= s.Y.N || ctx.Err() != nil {
-					return
-				}
-				y := s.Y.At(j)
-				row := m.RHP[j*s.X.N : (j+1)*s.X.N]
-				for i := range row {
-					pencil.EvalInto(p, s.X.At(i), y)
-					row[i] = int8(min(counter.Count(p), 127))
-				}
-				d := done.Add(1)
-				if opt.Progress != nil {
-					opt.Progress(int(d))
-				}
-			}
-		}()
-	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
+	newScratch := func() scratch { return scratch{NewCounter(pencil.Len()), make(poly.Poly, pencil.Len())} }
+	err := EachRow(ctx, s.Y.N, opt.Workers, opt.Progress, newScratch, func(w scratch, j int) {
+		y := s.Y.At(j)
+		row := m.RHP[j*s.X.N : (j+1)*s.X.N]
+		for i := range row {
+			pencil.EvalInto(w.p, s.X.At(i), y)
+			row[i] = int8(min(w.counter.Count(w.p), 127))
+		}
+	})
+	if err != nil {
 		return nil, err
 	}
 	return m, nil

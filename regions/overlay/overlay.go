@@ -12,9 +12,6 @@ import (
 	"context"
 	"fmt"
 	"math"
-	"runtime"
-	"sync"
-	"sync/atomic"
 
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
@@ -89,49 +86,27 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 	}
 	pencil := s.Pencil()
 	open := newOpenLoop(s)
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.NumCPU()
-	}
-	workers = min(workers, s.Y.N)
-	var next, done atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			e := newEvaluator(pencil, open)
-			for {
-				j := int(next.Add(1) - 1)
-				if j >= s.Y.N || ctx.Err() != nil {
-					return
-				}
-				y := s.Y.At(j)
-				for i := 0; i < s.X.N; i++ {
-					k := j*s.X.N + i
-					if m.RHP[k] != 0 {
-						continue
-					}
-					x := s.X.At(i)
-					p := pencil.EvalInto(e.p, x, y)
-					if opt.Damping {
-						g.Decay[k], g.Damping[k] = e.poles.decayAndDamping(p)
-					} else {
-						g.Decay[k] = e.shift.decay(p)
-					}
-					if opt.Sensitivity != nil {
-						g.Ms[k] = opt.Sensitivity(e.openLoop(x, y))
-					}
-				}
-				d := done.Add(1)
-				if opt.Progress != nil {
-					opt.Progress(int(d))
-				}
+	newScratch := func() *evaluator { return newEvaluator(pencil, open) }
+	err := grid.EachRow(ctx, s.Y.N, opt.Workers, opt.Progress, newScratch, func(e *evaluator, j int) {
+		y := s.Y.At(j)
+		for i := 0; i < s.X.N; i++ {
+			k := j*s.X.N + i
+			if m.RHP[k] != 0 {
+				continue
 			}
-		}()
-	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
+			x := s.X.At(i)
+			p := pencil.EvalInto(e.p, x, y)
+			if opt.Damping {
+				g.Decay[k], g.Damping[k] = e.poles.decayAndDamping(p)
+			} else {
+				g.Decay[k] = e.shift.decay(p)
+			}
+			if opt.Sensitivity != nil {
+				g.Ms[k] = opt.Sensitivity(e.openLoop(x, y))
+			}
+		}
+	})
+	if err != nil {
 		return nil, err
 	}
 	return g, nil
