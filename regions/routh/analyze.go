@@ -124,7 +124,7 @@ func Analyze(p poly.Poly) Report {
 	qScales := balancedScales(q)
 
 	overflow, rowDoubt, judged := false, false, false
-	ar := arith{terms: 3*m + 8, overflow: &overflow, judged: &judged}
+	ar := arith{terms: 3*m + 8, overflow: &overflow}
 	w := m/2 + 1
 	rows := make([][]series, 0, m+1)
 	for r := 0; r < 2; r++ {
@@ -162,6 +162,9 @@ func Analyze(p poly.Poly) Report {
 				// Only the first all-zero row decides counts; rows below
 				// it merely display the continued array.
 				rowDoubt = rowDoubt || (auxRow < 0 && e.doubtful)
+				// An all-zero row is itself a judgement unless every entry
+				// vanished as an exact cancellation.
+				judged = judged || (auxRow < 0 && e.judged)
 			}
 			// All-zero row: the row above holds the auxiliary polynomial
 			// A(s) = Σ α_j s^(power+1−2j), an even or odd factor of q whose
@@ -223,6 +226,7 @@ func Analyze(p poly.Poly) Report {
 		if row[0].doubtful {
 			return fromEigenvalues(rep, q)
 		}
+		judged = judged || row[0].judged
 	}
 	// A doubtful all-zero row still gives an auxiliary polynomial whose
 	// roots can be counted; the eigenvalues then confirm or overrule it.
