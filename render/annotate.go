@@ -136,9 +136,9 @@ func (a annotations) curvePaths(pl *placer, trX, trY transform) []curvePath {
 // and records them in pl.
 func (a annotations) isoTexts(pl *placer, trX, trY transform) []isoText {
 	var out []isoText
-	for _, set := range a.iso {
+	for i, set := range a.iso {
 		for _, lv := range set.levels {
-			it := isoText{text: set.name + "=" + formatNumber(lv.level)}
+			it := isoText{text: set.name + "=" + formatNumber(lv.level), colour: contourLabelColour(i)}
 			for _, xys := range lv.lines {
 				if len(xys) < 2 {
 					continue

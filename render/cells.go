@@ -1,7 +1,10 @@
 package render
 
 import (
+	"image"
 	"image/color"
+	imagedraw "image/draw"
+	"math"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -9,9 +12,10 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 )
 
-// cellFill paints the cell around every node of a grid in a colour
-// chosen per node; a nil colour leaves the cell unpainted. Cells reach
-// halfway to the neighbouring nodes, as in plotter.HeatMap.
+// cellFill paints the cells around the nodes of one or more grids, each
+// cell in a colour chosen per node; later layers paint over earlier ones
+// and a nil colour leaves the cell unpainted. Cells reach halfway to the
+// neighbouring nodes, as in plotter.HeatMap.
 //
 // It exists beside plotter.HeatMap because that plotter fills one
 // rectangle per node: anti-aliased raster output then shows faint seams
@@ -19,7 +23,19 @@ import (
 // nodes. Here each horizontal run of one colour is a single rectangle,
 // and each rectangle reaches seamOverlap into the row above, which is
 // painted later and covers the overlap.
+//
+// With dpi set, every layer is painted instead into one image of that
+// resolution covering the data area, drawn with the canvas's DrawImage.
+// A vector file then holds one embedded picture of the fills rather than
+// a rectangle per run, which for a shaded map is one per cell; the
+// edges, iso-lines and text drawn over it stay vector shapes.
 type cellFill struct {
+	layers []cellLayer
+	dpi    int
+}
+
+// cellLayer is one grid of cells and the colour of each.
+type cellLayer struct {
 	g      plotter.GridXYZ
 	colour func(c, r int) color.Color
 }
@@ -39,38 +55,99 @@ func cellEdges(n int, at func(int) float64) []float64 {
 	return e
 }
 
-// Plot paints the cells.
-func (f cellFill) Plot(c draw.Canvas, plt *plot.Plot) {
-	trX, trY := plt.Transforms(&c)
-	nc, nr := f.g.Dims()
+// cellRun is a horizontal run of cells of one colour in canvas units;
+// last reports whether the run ends at the grid's right edge and top
+// reports whether it lies in the grid's top row.
+type cellRun struct {
+	rect      vg.Rectangle
+	colour    color.Color
+	last, top bool
+}
+
+// runs calls paint for every run of one colour of l, bottom row first.
+func (l cellLayer) runs(trX, trY transform, paint func(cellRun)) {
+	nc, nr := l.g.Dims()
 	if nc < 2 || nr < 2 {
 		return
 	}
-	xe, ye := cellEdges(nc, f.g.X), cellEdges(nr, f.g.Y)
+	xe, ye := cellEdges(nc, l.g.X), cellEdges(nr, l.g.Y)
 	for r := 0; r < nr; r++ {
-		y0, y1 := trY(ye[r]), trY(ye[r+1])
-		if r+1 < nr {
-			y1 += seamOverlap
-		}
 		for i := 0; i < nc; {
-			col := f.colour(i, r)
+			col := l.colour(i, r)
 			start := i
-			for i < nc && sameColour(f.colour(i, r), col) {
+			for i < nc && sameColour(l.colour(i, r), col) {
 				i++
 			}
 			if col == nil {
 				continue
 			}
-			x0, x1 := trX(xe[start]), trX(xe[i])
-			if i < nc {
-				x1 += seamOverlap
-			}
-			c.FillPolygon(col, c.ClipPolygonXY(rectPoints(vg.Rectangle{
-				Min: vg.Point{X: x0, Y: y0},
-				Max: vg.Point{X: x1, Y: y1},
-			})))
+			paint(cellRun{
+				rect: vg.Rectangle{
+					Min: vg.Point{X: trX(xe[start]), Y: trY(ye[r])},
+					Max: vg.Point{X: trX(xe[i]), Y: trY(ye[r+1])},
+				},
+				colour: col,
+				last:   i == nc,
+				top:    r == nr-1,
+			})
 		}
 	}
+}
+
+// Plot paints the cells.
+func (f cellFill) Plot(c draw.Canvas, plt *plot.Plot) {
+	trX, trY := plt.Transforms(&c)
+	if f.dpi > 0 {
+		if img := f.image(c.Rectangle, trX, trY); img != nil {
+			c.DrawImage(c.Rectangle, img)
+		}
+		return
+	}
+	for _, l := range f.layers {
+		l.runs(trX, trY, func(run cellRun) {
+			r := run.rect
+			if !run.last {
+				r.Max.X += seamOverlap
+			}
+			if !run.top {
+				r.Max.Y += seamOverlap
+			}
+			c.FillPolygon(run.colour, c.ClipPolygonXY(rectPoints(r)))
+		})
+	}
+}
+
+// maxFillPixels bounds each side of the fill image, so a poster-sized
+// figure cannot ask for an image of hundreds of megabytes; at the
+// default resolution it is reached only by a data area over half a
+// metre wide.
+const maxFillPixels = 4096
+
+// image paints the layers into an image covering area at f.dpi; it
+// returns nil if area is too small to hold a pixel. Run edges are
+// rounded to whole pixels, so neighbouring runs meet without seams.
+func (f cellFill) image(area vg.Rectangle, trX, trY transform) image.Image {
+	size := area.Size()
+	w := min(maxFillPixels, int(math.Ceil(float64(size.X/vg.Inch)*float64(f.dpi))))
+	h := min(maxFillPixels, int(math.Ceil(float64(size.Y/vg.Inch)*float64(f.dpi))))
+	if w < 1 || h < 1 {
+		return nil
+	}
+	// Pixel columns count from the left edge of area, rows from its top.
+	col := func(x vg.Length) int {
+		return max(0, min(w, int(math.Round(float64((x-area.Min.X)/size.X)*float64(w)))))
+	}
+	row := func(y vg.Length) int {
+		return max(0, min(h, int(math.Round(float64((area.Max.Y-y)/size.Y)*float64(h)))))
+	}
+	img := image.NewRGBA(image.Rect(0, 0, w, h))
+	for _, l := range f.layers {
+		l.runs(trX, trY, func(run cellRun) {
+			r := image.Rect(col(run.rect.Min.X), row(run.rect.Max.Y), col(run.rect.Max.X), row(run.rect.Min.Y))
+			imagedraw.Draw(img, r, image.NewUniform(run.colour), image.Point{}, imagedraw.Over)
+		})
+	}
+	return img
 }
 
 // sameColour reports whether a and b paint alike; nil equals only nil.

@@ -42,7 +42,8 @@ type Figure struct {
 	// shaded in muted tones.
 	Shade *Field
 	// Contours are iso-lines of fields, each set drawn in its own dash
-	// pattern and labelled "Name=level".
+	// pattern and colour, in this order, and labelled "Name=level" in
+	// its colour; a fifth set repeats the first one's look.
 	Contours []ContourSet
 	// Marks are design points drawn as a symbol with a label.
 	Marks []Mark

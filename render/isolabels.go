@@ -1,6 +1,7 @@
 package render
 
 import (
+	"image/color"
 	"math"
 	"sort"
 
@@ -50,17 +51,18 @@ type isoLine struct {
 	id  int
 }
 
-// isoText is one level of a contour set as drawn: its label and lines.
+// isoText is one level of a contour set as drawn: its label, the label's
+// colour (nil means ink) and its lines.
 type isoText struct {
-	text  string
-	lines []isoLine
+	text   string
+	colour color.Color
+	lines  []isoLine
 }
 
 // placeIsoLabels writes the label of every level on its lines and claims
 // the boxes. Marks are the symbol centres whose surroundings labels
 // avoid when they can.
 func placeIsoLabels(pl *placer, levels []isoText, marks []vg.Point) []drawnLabel {
-	style := centredStyle(labelSize, contourColour)
 	longest := make([]vg.Length, len(levels))
 	order := make([]int, len(levels))
 	for i, lv := range levels {
@@ -75,6 +77,10 @@ func placeIsoLabels(pl *placer, levels []isoText, marks []vg.Point) []drawnLabel
 	placeInBestOrder(pl, [][]int{order}, func(order []int) (poor []int, cost float64) {
 		out = out[:0]
 		for _, i := range order {
+			style := centredStyle(labelSize, inkColour)
+			if c := levels[i].colour; c != nil {
+				style.Color = c
+			}
 			labels, bad := labelLevel(pl, levels[i], style, marks)
 			out = append(out, labels...)
 			switch {

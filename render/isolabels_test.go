@@ -88,7 +88,7 @@ func TestFigureLabelsDoNotOverlap(t *testing.T) {
 	f = f.withDefaults()
 	img := vgimg.New(f.Width, f.Height)
 	dc := draw.New(img)
-	p, ann := buildPlot(&f, countColours(true), newShadeScale(0, 0.9))
+	p, ann := buildPlot(&f, countColours(true), newShadeScale(0, 0.9), 0)
 	data := p.DataCanvas(dc)
 	trX, trY := p.Transforms(&data)
 	lay := ann.place(data.Rectangle, trX, trY)

@@ -35,8 +35,10 @@ const (
 // map's cells exactly.
 type plotOnly struct{ plot.Plotter }
 
-// drawFigure draws f, already checked and with defaults, onto c.
-func drawFigure(c draw.Canvas, f *Figure) {
+// drawFigure draws f, already checked and with defaults, onto c. If
+// fillDPI is positive the cell fills are drawn as one image of that
+// resolution, as cellFill describes; otherwise as vector shapes.
+func drawFigure(c draw.Canvas, f *Figure, fillDPI int) {
 	var scale *shadeScale
 	if f.Shade != nil {
 		if lo, hi, ok := f.Shade.Range(); ok {
@@ -62,7 +64,7 @@ func drawFigure(c draw.Canvas, f *Figure) {
 	}
 
 	plotC := draw.Crop(body, 0, -(panelW + panelGap + scaleW), 0, 0)
-	p, _ := buildPlot(f, rc, scale)
+	p, _ := buildPlot(f, rc, scale, fillDPI)
 	p.Draw(plotC)
 	data := p.DataCanvas(plotC)
 	if scale != nil {
@@ -144,21 +146,24 @@ func styleAxis(a *plot.Axis, label string) {
 }
 
 // buildPlot assembles the map: fills, hatching, iso-lines, boundary
-// curves and, last, the labels and marks, which it also returns.
-func buildPlot(f *Figure, rc regionColours, scale *shadeScale) (*plot.Plot, annotations) {
+// curves and, last, the labels and marks, which it also returns. FillDPI
+// is as for drawFigure.
+func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*plot.Plot, annotations) {
 	p := plot.New()
 	styleAxis(&p.X, f.XLabel)
 	styleAxis(&p.Y, f.YLabel)
 
 	m := f.Map
-	p.Add(cellFill{g: m, colour: func(c, r int) color.Color { return rc.count(m.Count(c, r)) }})
+	fills := cellFill{dpi: fillDPI, layers: []cellLayer{
+		{g: m, colour: func(c, r int) color.Color { return rc.count(m.Count(c, r)) }},
+	}}
 	xe, ye := cellEdges(m.XAxis.N, m.X), cellEdges(m.YAxis.N, m.Y)
 	p.X.Min, p.X.Max = xe[0], xe[len(xe)-1]
 	p.Y.Min, p.Y.Max = ye[0], ye[len(ye)-1]
 
 	if scale != nil {
 		shade := stableOnly{f.Shade, m}
-		p.Add(cellFill{g: shade, colour: func(c, r int) color.Color {
+		fills.layers = append(fills.layers, cellLayer{g: shade, colour: func(c, r int) color.Color {
 			v := shade.Z(c, r)
 			if math.IsNaN(v) {
 				return nil
@@ -166,6 +171,7 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale) (*plot.Plot, anno
 			return scale.colourAt((v - scale.Min()) / (scale.Max() - scale.Min()))
 		}})
 	}
+	p.Add(fills)
 	if hasUndecided(m) {
 		p.Add(undecidedHatch{m})
 	}

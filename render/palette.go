@@ -39,10 +39,21 @@ type regionColours struct {
 	undecided color.Color                 // ground under the hatching
 }
 
+// mutedLightness holds the CIE L* (0–1) of the muted shades, index k-1
+// for k roots. The counts most maps show step down by 0.08 and 0.075,
+// the rest by 0.07 and 0.065, so even in greyscale each count is a
+// clearly different grey. The lightest stays 0.08 below the darkest end
+// of the shading scale (0.72) and the darkest stays light enough for the
+// black boundary curves, cased in white, to read against it.
+var mutedLightness = [distinctCounts]float64{0.64, 0.56, 0.485, 0.415, 0.35, 0.285}
+
 // countColours returns the fills for a plain map. With muted set, used
 // when a Field shades the stable region, the unstable shades keep their
-// order but lose nearly all colour and sit below the whole lightness
-// range of the shading scale, so the two never look alike.
+// order but become warm greys of low chroma, all darker than the whole
+// shading scale, so the shaded stable region stands out and never looks
+// like an unstable one; their hue drifts from sand towards umber as the
+// count rises, a second cue beside lightness for readers with colour
+// vision.
 func countColours(muted bool) regionColours {
 	rc := regionColours{
 		stable:    hcl(200, 0.20, 0.94),
@@ -51,7 +62,7 @@ func countColours(muted bool) regionColours {
 	for k := 1; k <= distinctCounts; k++ {
 		f := float64(k - 1)
 		if muted {
-			rc.unstable[k-1] = hcl(70, 0.03, 0.64-0.04*f)
+			rc.unstable[k-1] = hcl(80-9*f, 0.035+0.008*f, mutedLightness[k-1])
 		} else {
 			rc.unstable[k-1] = hcl(82-13*f, 0.34-0.01*f, 0.76-0.075*f)
 		}

@@ -22,10 +22,21 @@ const (
 	// five L* units is the smallest step reliably told apart between large
 	// neighbouring patches on paper (common practice).
 	minCountStep = 0.06
+	// minCountColourStep is the least CIEDE2000 difference between the
+	// shades of consecutive counts, on go-colorful's 0–1 scale: five
+	// units, several times the just-noticeable difference of about one
+	// unit between large neighbouring patches (common practice). It is
+	// below minCountStep because CIEDE2000 weighs a lightness step less
+	// away from mid-grey.
+	minCountColourStep = 0.05
 	// minShadeGap is the least L* by which the darkest end of the shading
 	// scale stays lighter than the lightest muted unstable shade, so the
 	// shaded stable region never matches an unstable one in greyscale.
 	minShadeGap = 0.05
+	// maxMutedChroma is the most CIE-LCh chroma a muted shade may have,
+	// on go-colorful's scale; at about a fifth of the stable shading's
+	// strongest chroma the unstable region reads as grey beside it.
+	maxMutedChroma = 0.08
 )
 
 func TestRegionShadesInGreyscale(t *testing.T) {
@@ -60,8 +71,8 @@ func TestMutedShadesBelowShadeScale(t *testing.T) {
 		if darkest-l < minShadeGap {
 			t.Errorf("muted count %d: L* %.3f within %.2f of the darkest shade %.3f", k, l, minShadeGap, darkest)
 		}
-		if k > 1 && lightness(muted.count(k-1)) <= l {
-			t.Errorf("muted counts %d and %d are not ordered by lightness", k-1, k)
+		if c := chroma(muted.count(k)); c > maxMutedChroma {
+			t.Errorf("muted count %d: chroma %.3f, above %.2f; it no longer reads as muted", k, c, maxMutedChroma)
 		}
 	}
 	// The scale itself must darken monotonically to read in greyscale.
@@ -72,6 +83,27 @@ func TestMutedShadesBelowShadeScale(t *testing.T) {
 			t.Fatalf("shade scale lightness rises at step %d: %.4f after %.4f", i, l, prev)
 		}
 		prev = l
+	}
+}
+
+func TestMutedShadesStepDown(t *testing.T) {
+	// Neighbouring unstable regions of a shaded map, such as one and two
+	// roots, must be told apart in greyscale (by L*) and in colour (by
+	// CIEDE2000).
+	muted := countColours(true)
+	for k := 2; k <= distinctCounts; k++ {
+		prev, cur := muted.count(k-1), muted.count(k)
+		if d := lightness(prev) - lightness(cur); d < minCountStep {
+			t.Errorf("muted counts %d and %d: L* %.3f and %.3f differ by %.3f, want at least %.2f", k-1, k, lightness(prev), lightness(cur), d, minCountStep)
+		}
+		a, _ := colorful.MakeColor(prev)
+		b, _ := colorful.MakeColor(cur)
+		if d := a.DistanceCIEDE2000(b); d < minCountColourStep {
+			t.Errorf("muted counts %d and %d: colour difference %.3f, want at least %.2f", k-1, k, d, minCountColourStep)
+		}
+	}
+	if got, want := muted.count(distinctCounts+2), muted.count(distinctCounts); !sameColour(got, want) {
+		t.Errorf("muted count %d has its own shade; counts above %d should share the darkest", distinctCounts+2, distinctCounts)
 	}
 }
 
@@ -109,4 +141,11 @@ func lightness(c color.Color) float64 {
 	cf, _ := colorful.MakeColor(c)
 	l, _, _ := cf.Lab()
 	return l
+}
+
+// chroma returns the CIE-LCh chroma of c on go-colorful's scale.
+func chroma(c color.Color) float64 {
+	cf, _ := colorful.MakeColor(c)
+	_, ch, _ := cf.Hcl()
+	return ch
 }

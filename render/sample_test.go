@@ -40,11 +40,15 @@ func discR(x, y float64) float64 {
 }
 
 // sampleMap builds the synthetic count map.
-func sampleMap() *grid.Map {
-	m := grid.NewMap(sampleX, sampleY)
-	for j := 0; j < sampleY.N; j++ {
-		for i := 0; i < sampleX.N; i++ {
-			x, y := sampleX.At(i), sampleY.At(j)
+func sampleMap() *grid.Map { return sampleMapOn(sampleX, sampleY) }
+
+// sampleMapOn builds the synthetic count map on the nodes of axes xa and
+// ya, which should span the sample ranges.
+func sampleMapOn(xa, ya plane.Axis) *grid.Map {
+	m := grid.NewMap(xa, ya)
+	for j := 0; j < ya.N; j++ {
+		for i := 0; i < xa.N; i++ {
+			x, y := xa.At(i), ya.At(j)
 			var c int8 = 1
 			switch {
 			case x < 0.5 && y > 3.3:
@@ -56,7 +60,7 @@ func sampleMap() *grid.Map {
 			case x > cornerX+0.8 && y < 0.8:
 				c = 3
 			}
-			m.RHP[j*sampleX.N+i] = c
+			m.RHP[j*xa.N+i] = c
 		}
 	}
 	return m
@@ -96,15 +100,20 @@ func sampleCurves() []boundary.Curve {
 // sampleField returns a field over the sample axes computed by f, NaN
 // outside the stable disc.
 func sampleField(name string, f func(r float64) float64) *Field {
-	fd := &Field{XAxis: sampleX, YAxis: sampleY, Name: name, Values: make([]float64, sampleX.N*sampleY.N)}
-	for j := 0; j < sampleY.N; j++ {
-		for i := 0; i < sampleX.N; i++ {
-			r := discR(sampleX.At(i), sampleY.At(j))
+	return sampleFieldOn(sampleX, sampleY, name, f)
+}
+
+// sampleFieldOn is sampleField on the nodes of axes xa and ya.
+func sampleFieldOn(xa, ya plane.Axis, name string, f func(r float64) float64) *Field {
+	fd := &Field{XAxis: xa, YAxis: ya, Name: name, Values: make([]float64, xa.N*ya.N)}
+	for j := 0; j < ya.N; j++ {
+		for i := 0; i < xa.N; i++ {
+			r := discR(xa.At(i), ya.At(j))
 			v := math.NaN()
 			if r < 1 {
 				v = f(r)
 			}
-			fd.Values[j*sampleX.N+i] = v
+			fd.Values[j*xa.N+i] = v
 		}
 	}
 	return fd
@@ -122,22 +131,67 @@ func sampleFigure() Figure {
 }
 
 // shadedFigure adds a decay-rate shading and sensitivity iso-lines.
-func shadedFigure() Figure {
+func shadedFigure() Figure { return shadedFigureOn(sampleX, sampleY) }
+
+// shadedFigureOn is shadedFigure with the map and fields on the nodes of
+// axes xa and ya.
+func shadedFigureOn(xa, ya plane.Axis) Figure {
 	f := sampleFigure()
-	f.Shade = sampleField("decay rate σ (1/s)", func(r float64) float64 { return 0.9 * (1 - r*r) })
-	ms := sampleField("Ms", func(r float64) float64 { return 1.2 + 0.5/(1.02-r) })
+	f.Map = sampleMapOn(xa, ya)
+	f.Shade = sampleFieldOn(xa, ya, "decay rate σ (1/s)", decayOfRadius)
+	ms := sampleFieldOn(xa, ya, "Ms", msOfRadius)
 	f.Contours = []ContourSet{{Field: ms, Levels: []float64{1.8, 3}, Name: "Ms"}}
 	return f
 }
 
-// TestSampleImages draws both sample figures to PNG and checks the
-// stable colour appears; with -samples it keeps them and greyscale
-// copies for viewing.
+// decayOfRadius is a made-up decay rate at normalised radius r in the
+// stable disc; it falls to zero towards the disc's edge, as the real one
+// does towards a stability boundary.
+func decayOfRadius(r float64) float64 { return 0.9 * (1 - r*r) }
+
+// msOfRadius is a made-up peak sensitivity at normalised radius r in the
+// stable disc; it grows steeply towards the disc's edge, as Ms does
+// towards a stability boundary.
+func msOfRadius(r float64) float64 { return 1.2 + 0.5/(1.02-r) }
+
+// isoFigure is the shaded figure with four iso-line sets, one of each
+// look, crossing one another inside the stable disc: decay rate, a
+// made-up damping ratio falling from left to right, Ms, and a fourth
+// made-up quantity rising from bottom to top.
+func isoFigure() Figure {
+	f := shadedFigure()
+	f.Title = "four iso-line sets over a shaded map"
+	damping := &Field{XAxis: sampleX, YAxis: sampleY, Name: "ζ", Values: make([]float64, sampleX.N*sampleY.N)}
+	fourth := &Field{XAxis: sampleX, YAxis: sampleY, Name: "q", Values: make([]float64, sampleX.N*sampleY.N)}
+	for j := 0; j < sampleY.N; j++ {
+		for i := 0; i < sampleX.N; i++ {
+			x, y := sampleX.At(i), sampleY.At(j)
+			z, q := math.NaN(), math.NaN()
+			if discR(x, y) < 1 {
+				z = 0.5 + 0.4*(x-discX)/discRX - 0.1*(y-discY)/discRY
+				q = 0.5 + 0.4*(y-discY)/discRY + 0.1*(x-discX)/discRX
+			}
+			damping.Values[j*sampleX.N+i], fourth.Values[j*sampleX.N+i] = z, q
+		}
+	}
+	f.Contours = []ContourSet{
+		{Field: f.Shade, Levels: []float64{0.3, 0.6}, Name: "σ"},
+		{Field: damping, Levels: []float64{0.4, 0.7}, Name: "ζ"},
+		f.Contours[0],
+		{Field: fourth, Levels: []float64{0.4}, Name: "q"},
+	}
+	return f
+}
+
+// TestSampleImages draws the sample figures to PNG and checks the stable
+// colour appears; with -samples it keeps them, greyscale copies and SVG
+// versions for viewing.
 func TestSampleImages(t *testing.T) {
 	for name, f := range map[string]Figure{
 		"render-sample":       sampleFigure(),
 		"render-sample-shade": shadedFigure(),
 		"render-sample-dense": denseFigure(),
+		"render-sample-iso":   isoFigure(),
 	} {
 		path := t.TempDir() + "/" + name + ".png"
 		if *writeSamples {
@@ -152,6 +206,9 @@ func TestSampleImages(t *testing.T) {
 		}
 		if *writeSamples {
 			writeGrey(t, img, os.TempDir()+"/"+name+"-grey.png")
+			if err := WriteFile(os.TempDir()+"/"+name+".svg", f); err != nil {
+				t.Fatal(err)
+			}
 		}
 	}
 }

@@ -39,10 +39,6 @@ var noteColour = color.Gray{Y: 0x40}
 // haloColour separates black lines and labels from dark fills.
 var haloColour = color.NRGBA{R: 255, G: 255, B: 255, A: 230}
 
-// contourColour is a dark slate blue, distinct from the black boundary
-// curves in colour and, through thinner lines, in greyscale.
-var contourColour = hcl(255, 0.22, 0.30)
-
 // textStyle returns a left-aligned, baseline-anchored style of the given
 // size.
 func textStyle(size vg.Length, bold bool, c color.Color) text.Style {
@@ -98,20 +94,62 @@ var kindNames = map[boundary.Kind]string{
 // kindOrder is the order of boundary kinds in the legend.
 var kindOrder = []boundary.Kind{boundary.Complex, boundary.Real, boundary.Infinite}
 
-// contourDashes are the dash patterns of successive contour sets; none is
-// solid, dashed or dotted alone, so no set looks like a boundary curve.
-var contourDashes = [][]vg.Length{
-	{5, 1.8, 1.2, 1.8},
-	{5, 1.8, 1.2, 1.8, 1.2, 1.8},
-	{9, 2, 3, 2},
-	{2.5, 1.5},
+// Iso-line sets are told apart twice over, so either cue suffices: by
+// dash pattern, which survives greyscale print, and by hue. Each set's
+// look pairs a dash pattern with a CIE-LCh hue and lightness. The four
+// colours come from a search over hue and lightness for the set whose
+// closest pair is farthest apart by CIEDE2000, as seen with full colour
+// vision, as seen by red–green dichromats (who keep only lightness and
+// the blue–yellow contrast) and in lightness and red–green alone (what
+// the rarer blue–yellow dichromats keep); lightness was held to 0.5 or
+// less so every line stands clear of the light fills, and hues were kept
+// away from the blue-green of the stable region. The ochre was then
+// darkened a little to hold against the darkest shading in greyscale.
+// The result is ochre, indigo, raspberry and a dark green. The patterns,
+// in the same order, are dash and dot, long dash, short dash and two
+// dots, and fine dots; none is solid, plain dashed or coarse-dotted like
+// a boundary curve, and the contour stroke is thinner and carries no
+// white casing.
+var contourLooks = []struct {
+	hue, lightness float64
+	dashes         []vg.Length
+}{
+	{70, 0.46, []vg.Length{9, 2, 1.2, 2}},
+	{295, 0.30, []vg.Length{11, 3}},
+	{0, 0.38, []vg.Length{3.5, 1.6, 1, 1.6, 1, 1.6}},
+	{145, 0.30, []vg.Length{1, 1.4}},
 }
+
+// contourChroma is the chroma asked of every contour colour; hcl lowers
+// it where a hue cannot reach it at the set lightness.
+const contourChroma = 0.5
+
+// contourWidth is the stroke width of iso-lines.
+const contourWidth = vg.Length(1.1)
+
+// contourColour returns the colour of the i-th contour set; sets beyond
+// the fourth repeat the looks in turn.
+func contourColour(i int) color.Color {
+	l := contourLooks[i%len(contourLooks)]
+	return hcl(l.hue, contourChroma, l.lightness)
+}
+
+// contourLabelColour returns the text colour of the i-th set's labels:
+// the set's hue, darkened where needed so small type on the white label
+// ground keeps a contrast ratio of about 7:1.
+func contourLabelColour(i int) color.Color {
+	l := contourLooks[i%len(contourLooks)]
+	return hcl(l.hue, contourChroma, min(l.lightness, contourLabelLightness))
+}
+
+// contourLabelLightness is the greatest CIE L* (0–1) of label text.
+const contourLabelLightness = 0.36
 
 // contourStyle returns the stroke of the i-th contour set.
 func contourStyle(i int) draw.LineStyle {
 	return draw.LineStyle{
-		Color:  contourColour,
-		Width:  0.9,
-		Dashes: contourDashes[i%len(contourDashes)],
+		Color:  contourColour(i),
+		Width:  contourWidth,
+		Dashes: contourLooks[i%len(contourLooks)].dashes,
 	}
 }

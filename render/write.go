@@ -1,8 +1,8 @@
 package render
 
 import (
+	"bytes"
 	"fmt"
-	"gainscape/internal/safefile"
 	"io"
 	"path/filepath"
 	"strings"
@@ -11,7 +11,15 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
 	"gonum.org/v1/plot/vg/vgsvg"
+
+	"gainscape/internal/safefile"
 )
+
+// svgFillDPI is the resolution of the image that holds the cell fills in
+// SVG output: fine enough that a print of the default 16 cm figure shows
+// no steps the vector edges over it do not already hide, yet small
+// enough to keep a shaded map well under a megabyte.
+const svgFillDPI = 200
 
 // Write draws f and writes it to w in format "png" or "svg".
 func Write(w io.Writer, format string, f Figure) error {
@@ -20,17 +28,51 @@ func Write(w io.Writer, format string, f Figure) error {
 	}
 	f = f.withDefaults()
 	var cv vg.CanvasWriterTo
+	fillDPI := 0
 	switch format {
 	case "png":
 		cv = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(f.DPI))}
 	case "svg":
-		cv = vgsvg.New(f.Width, f.Height)
+		cv = svgCanvas{vgsvg.New(f.Width, f.Height)}
+		fillDPI = svgFillDPI
 	default:
 		return fmt.Errorf("render: unknown image format %q; want \"png\" or \"svg\"", format)
 	}
-	drawFigure(draw.New(cv), &f)
+	drawFigure(draw.New(cv), &f, fillDPI)
 	_, err := cv.WriteTo(w)
 	return err
+}
+
+// svgCanvas is an SVG canvas whose embedded images read alike in every
+// SVG reader. The vgsvg canvas encodes every image as PNG but labels the
+// data "image/jpg", which browsers look past but librsvg, among others,
+// does not; and it leaves the SVG default of keeping the image's aspect
+// ratio, so the 1-pixel-wide picture of the shading scale was drawn as a
+// hairline in the middle of its bar. WriteTo relabels the images as
+// "image/png" and stretches each to its rectangle, as the raster canvas
+// does.
+type svgCanvas struct{ *vgsvg.Canvas }
+
+// svgFixes are the replacements WriteTo makes. Text on the canvas cannot
+// produce either pattern: vgsvg escapes the "<" and the quotation mark
+// in it.
+var svgFixes = []struct{ old, new []byte }{
+	{[]byte(`xlink:href="data:image/jpg;base64,`), []byte(`xlink:href="data:image/png;base64,`)},
+	{[]byte(`<image `), []byte(`<image preserveAspectRatio="none" `)},
+}
+
+// WriteTo writes the SVG document to w with its images fixed.
+func (c svgCanvas) WriteTo(w io.Writer) (int64, error) {
+	var buf bytes.Buffer
+	if _, err := c.Canvas.WriteTo(&buf); err != nil {
+		return 0, err
+	}
+	b := buf.Bytes()
+	for _, f := range svgFixes {
+		b = bytes.ReplaceAll(b, f.old, f.new)
+	}
+	n, err := w.Write(b)
+	return int64(n), err
 }
 
 // WriteFile draws f to the file at path, in the format its extension

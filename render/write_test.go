@@ -2,12 +2,17 @@ package render
 
 import (
 	"bytes"
+	"encoding/base64"
 	"encoding/xml"
+	"image"
+	"image/color"
 	"image/png"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -221,5 +226,126 @@ func TestStableOnlyHidesUnstableNodes(t *testing.T) {
 				t.Fatalf("node (%d, %d): count %d, shaded value %v", i, j, m.Count(i, j), v)
 			}
 		}
+	}
+}
+
+// svgImages returns the attributes of every <image> element of an SVG
+// document, in document order, and the decoded PNG each embeds.
+func svgImages(t *testing.T, svg string) ([]map[string]string, []image.Image) {
+	t.Helper()
+	var attrs []map[string]string
+	var imgs []image.Image
+	for _, m := range regexp.MustCompile(`<image ([^>]*)/>`).FindAllStringSubmatch(svg, -1) {
+		a := map[string]string{}
+		for _, kv := range regexp.MustCompile(`([\w:]+)="([^"]*)"`).FindAllStringSubmatch(m[1], -1) {
+			a[kv[1]] = kv[2]
+		}
+		const prefix = "data:image/png;base64,"
+		href := a["xlink:href"]
+		if !strings.HasPrefix(href, prefix) {
+			t.Fatalf("image data starts %q, want %q", href[:min(len(href), 30)], prefix)
+		}
+		raw, err := base64.StdEncoding.DecodeString(href[len(prefix):])
+		if err != nil {
+			t.Fatal(err)
+		}
+		img, err := png.Decode(bytes.NewReader(raw))
+		if err != nil {
+			t.Fatal(err)
+		}
+		attrs, imgs = append(attrs, a), append(imgs, img)
+	}
+	return attrs, imgs
+}
+
+func TestSVGShadedMapIsSmall(t *testing.T) {
+	// A shaded 400×300 map once took 3.9 MB as one SVG rectangle per
+	// cell. With the fills as one embedded image it must stay below 1 MB,
+	// while the text and the lines stay vector shapes.
+	const limit = 1 << 20
+	xa, ya := sampleX, sampleY
+	xa.N, ya.N = 400, 300
+	f := shadedFigureOn(xa, ya)
+	f.XLabel = "proportional gain kp"
+	var buf bytes.Buffer
+	if err := Write(&buf, "svg", f); err != nil {
+		t.Fatal(err)
+	}
+	svg := buf.String()
+	if buf.Len() >= limit {
+		t.Errorf("SVG of a shaded 400×300 map takes %d bytes, want under %d", buf.Len(), limit)
+	}
+	for _, want := range []string{"<text", "proportional gain kp", "decay rate σ (1/s)", "1 root in RHP", "Ms=1.8", "ω=", "B (tuned)"} {
+		if !strings.Contains(svg, want) {
+			t.Errorf("SVG lacks %q", want)
+		}
+	}
+	// The fills and the shading scale's bar are the only pictures; a
+	// path per cell would mean the fills were drawn as vectors again.
+	attrs, _ := svgImages(t, svg)
+	if len(attrs) != 2 {
+		t.Errorf("SVG embeds %d images, want 2 (fills and scale bar)", len(attrs))
+	}
+	for i, a := range attrs {
+		if a["preserveAspectRatio"] != "none" {
+			t.Errorf("image %d keeps its aspect ratio, so it may not fill its rectangle", i)
+		}
+	}
+	if n, cells := strings.Count(svg, "<path"), xa.N*ya.N; n > cells/20 {
+		t.Errorf("SVG has %d paths for %d cells; the fills are not one image", n, cells)
+	}
+}
+
+func TestSVGFillImageMatchesCells(t *testing.T) {
+	// Each cell's centre in the embedded fill image must have the cell's
+	// colour: the muted count shade, or the shading colour of its value
+	// where the map is stable. This fixes the image's orientation too:
+	// the undecided corner is at the top left.
+	f := shadedFigure()
+	var buf bytes.Buffer
+	if err := Write(&buf, "svg", f); err != nil {
+		t.Fatal(err)
+	}
+	attrs, imgs := svgImages(t, buf.String())
+	if len(imgs) == 0 {
+		t.Fatal("SVG embeds no image")
+	}
+	a, img := attrs[0], imgs[0]
+	b := img.Bounds()
+	w, _ := strconv.ParseFloat(a["width"], 64)
+	h, _ := strconv.ParseFloat(a["height"], 64)
+	// The image covers the data area at svgFillDPI; its pixel counts are
+	// rounded up.
+	if px := w / 72 * svgFillDPI; math.Abs(float64(b.Dx())-px) > 1 {
+		t.Errorf("fill image is %d pixels wide for %.1f pt; want %.0f at %d dpi", b.Dx(), w, px, svgFillDPI)
+	}
+	if px := h / 72 * svgFillDPI; math.Abs(float64(b.Dy())-px) > 1 {
+		t.Errorf("fill image is %d pixels high for %.1f pt; want %.0f at %d dpi", b.Dy(), h, px, svgFillDPI)
+	}
+	lo, hi, _ := f.Shade.Range()
+	scale := newShadeScale(lo, hi)
+	rc := countColours(true)
+	shade := stableOnly{f.Shade, f.Map}
+	nx, ny := f.Map.XAxis.N, f.Map.YAxis.N
+	// The image holds 8 bits per channel, the colours up to 16.
+	eight := func(c color.Color) color.Color { return color.RGBAModel.Convert(c) }
+	bad := 0
+	for j := 0; j < ny; j++ {
+		for i := 0; i < nx; i++ {
+			want := rc.count(f.Map.Count(i, j))
+			if v := shade.Z(i, j); !math.IsNaN(v) {
+				want, _ = scale.At(v)
+			}
+			x := b.Min.X + int((float64(i)+0.5)/float64(nx)*float64(b.Dx()))
+			y := b.Min.Y + int((float64(ny-1-j)+0.5)/float64(ny)*float64(b.Dy()))
+			if got := img.At(x, y); !sameColour(eight(got), eight(want)) {
+				if bad++; bad <= 5 {
+					t.Errorf("cell (%d, %d) at pixel (%d, %d): %v, want %v", i, j, x, y, eight(got), eight(want))
+				}
+			}
+		}
+	}
+	if bad > 5 {
+		t.Errorf("and %d more cells", bad-5)
 	}
 }
