@@ -123,7 +123,7 @@ func Analyze(p poly.Poly) Report {
 	}
 	qScales := balancedScales(q)
 
-	overflow, rowDoubt, judged := false, false, false
+	overflow := false
 	ar := arith{terms: 3*m + 8, overflow: &overflow}
 	w := m/2 + 1
 	rows := make([][]series, 0, m+1)
@@ -158,14 +158,6 @@ func Analyze(p poly.Poly) Report {
 		row := rows[k]
 		power := m - k
 		if allZero(row) {
-			for _, e := range row {
-				// Only the first all-zero row decides counts; rows below
-				// it merely display the continued array.
-				rowDoubt = rowDoubt || (auxRow < 0 && e.doubtful)
-				// An all-zero row is itself a judgement unless every entry
-				// vanished as an exact cancellation.
-				judged = judged || (auxRow < 0 && e.judged)
-			}
 			// All-zero row: the row above holds the auxiliary polynomial
 			// A(s) = Σ α_j s^(power+1−2j), an even or odd factor of q whose
 			// roots are symmetric about both axes.
@@ -226,11 +218,7 @@ func Analyze(p poly.Poly) Report {
 		if row[0].doubtful {
 			return fromEigenvalues(rep, q)
 		}
-		judged = judged || row[0].judged
 	}
-	// A doubtful all-zero row still gives an auxiliary polynomial whose
-	// roots can be counted; the eigenvalues then confirm or overrule it.
-	judged = judged || rowDoubt
 	prev := rows[0][0].sign()
 	changes := make([]int, m+1) // changes[k]: sign changes between rows k-1 and k
 	for k := 1; k <= m; k++ {
@@ -288,15 +276,16 @@ func Analyze(p poly.Poly) Report {
 		rep.Undecided, rep.Reason = true, "the special cases of the sign array gave inconsistent counts"
 		return rep
 	}
-	if judged {
-		return crossCheck(rep, q)
-	}
-	return rep
+	// Analyze is the path for polynomials whose array the fast test could
+	// not certify, so every count it gives is confirmed against the
+	// eigenvalues: near clustered or mirrored roots an entry can change
+	// sign under rounding without the samples showing it.
+	return crossCheck(rep, q)
 }
 
-// crossCheck confirms a count that rests on entries judged zero from the
-// stochastic samples. Such an entry may be a true zero (an imaginary-axis
-// pair, a structural cancellation) or a tiny value that the array, made
+// crossCheck confirms a count from the full analysis. Its special cases
+// rest on entries judged zero, which may be true zeros (an imaginary-axis
+// pair, a structural cancellation) or tiny values that the array, made
 // ill-conditioned by clustered or mirrored roots, cannot resolve. The
 // eigenvalues of the companion matrix tell the two apart: if they show the
 // same number of right-half-plane roots, and as many roots within axisTol
@@ -306,7 +295,7 @@ func Analyze(p poly.Poly) Report {
 func crossCheck(rep Report, q poly.Poly) Report {
 	roots, err := q.Roots()
 	if err != nil {
-		rep.Undecided, rep.Reason = true, "the count rests on a judged zero and the eigenvalues could not be found to confirm it"
+		rep.Undecided, rep.Reason = true, "the eigenvalues could not be found to confirm the count"
 		return rep
 	}
 	rhp, near := 0, 0

@@ -60,12 +60,6 @@ type series struct {
 	// residue of a cancellation that is exact in the unperturbed problem.
 	// It passes to every series computed from this one.
 	doubtful bool
-	// judged is set when a coefficient below the leading order was taken
-	// for zero on the evidence of the samples alone, not as the rounding
-	// residue of an exact cancellation: the series' leading order, and so
-	// its sign, rests on a judgement that Analyze cross-checks. It passes
-	// on like doubtful.
-	judged bool
 }
 
 // roundingUlps is the rounding allowance, in units of the last place of
@@ -140,7 +134,7 @@ func (s series) at(k int) (samples, float64) {
 // norm clears computational zeros and shifts s so that c[0] is its
 // lowest non-zero term.
 func (ar arith) norm(s series) series {
-	firstDoubt, firstJudged := len(s.c), len(s.c)
+	firstDoubt := len(s.c)
 	for i, v := range s.c {
 		mean := math.Abs(v.mean())
 		switch {
@@ -152,7 +146,6 @@ func (ar arith) norm(s series) series {
 			if mean > lossLimit*s.m[i] && i < firstDoubt {
 				firstDoubt = i
 			}
-			firstJudged = min(firstJudged, i)
 			s.c[i], s.m[i] = samples{}, 0
 		}
 	}
@@ -162,9 +155,6 @@ func (ar arith) norm(s series) series {
 	}
 	if firstDoubt < f {
 		s.doubtful = true
-	}
-	if firstJudged < f {
-		s.judged = true
 	}
 	if f == len(s.c) {
 		s.lo = 0
@@ -189,7 +179,7 @@ func (ar arith) sub(a, b series) series {
 	}
 	r := ar.zero()
 	r.lo = lo
-	r.doubtful, r.judged = a.doubtful || b.doubtful, a.judged || b.judged
+	r.doubtful = a.doubtful || b.doubtful
 	for i := range r.c {
 		x, _ := a.at(lo + i)
 		y, _ := b.at(lo + i)
@@ -207,7 +197,7 @@ func (ar arith) mul(a, b series) series {
 		return r
 	}
 	r.lo = a.lo + b.lo
-	r.doubtful, r.judged = a.doubtful || b.doubtful, a.judged || b.judged
+	r.doubtful = a.doubtful || b.doubtful
 	for n := range r.c {
 		for i := 0; i <= n; i++ {
 			x, y := a.c[i], b.c[n-i]
@@ -227,7 +217,7 @@ func (ar arith) div(a, b series) series {
 		return r
 	}
 	r.lo = a.lo - b.lo
-	r.doubtful, r.judged = a.doubtful || b.doubtful, a.judged || b.judged
+	r.doubtful = a.doubtful || b.doubtful
 	b0 := math.Abs(b.c[0].mean())
 	for n := range r.c {
 		v, m := a.c[n], math.Abs(a.c[n].mean())
