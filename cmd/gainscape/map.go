@@ -28,8 +28,8 @@ var demo = struct {
 	plant: "3/((s+0.5)*(s+2)*(0.4*s+1)^2)",
 	ctrl:  "pid",
 	set:   "kd=0.5,tau=0.05",
-	x:     "kp=-1:8",
-	y:     "ki=-0.5:4",
+	x:     "kp=-0.6:3.6",
+	y:     "ki=-0.4:1.8",
 	out:   "gainscape-demo.png",
 	label: "invented demo: pump pressure loop",
 }
