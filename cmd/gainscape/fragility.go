@@ -92,8 +92,17 @@ func fragility(ctx context.Context, loop plane.Loop, xName, yName string) (*frag
 	if err != nil {
 		return nil, err
 	}
+	// Bisection leaves rounding-sized residues where the edge lies on a
+	// whole value such as ki = 0; they are set to that value for reports.
+	snap := func(v, span float64) float64 {
+		if r := math.Round(v); math.Abs(v-r) <= 1e-9*span {
+			return r
+		}
+		return v
+	}
 	conv := func(n overlay.Nearest) *nearestEdge {
-		return &nearestEdge{Distance: n.Distance, Point: [2]float64{n.X, n.Y}, Kind: string(n.Kind), Omega: nullable(n.Omega)}
+		pt := [2]float64{snap(n.X, x1-x0), snap(n.Y, y1-y0)}
+		return &nearestEdge{Distance: n.Distance, Point: pt, Kind: string(n.Kind), Omega: nullable(n.Omega)}
 	}
 	rep.Found, rep.Absolute, rep.Relative = true, conv(cl.Absolute), conv(cl.Relative)
 	return rep, nil
