@@ -69,17 +69,13 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 	if n < 0 {
 		return 0, 0, Undecidable
 	}
-	scale := 0.0
+	// One sum tells whether every coefficient is finite (a NaN or an
+	// infinity makes it so) and whether any is non-zero.
+	total := 0.0
 	for _, v := range p {
-		a := math.Abs(v)
-		if !(a <= math.MaxFloat64) {
-			return 0, 0, Undecidable
-		}
-		if a > scale {
-			scale = a
-		}
+		total += math.Abs(v)
 	}
-	if scale == 0 {
+	if !(total <= math.MaxFloat64) || total == 0 {
 		return 0, 0, Undecidable
 	}
 	if p[n] == 0 {
