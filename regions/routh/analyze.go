@@ -287,27 +287,30 @@ func Analyze(p poly.Poly) Report {
 // rest on entries judged zero, which may be true zeros (an imaginary-axis
 // pair, a structural cancellation) or tiny values that the array, made
 // ill-conditioned by clustered or mirrored roots, cannot resolve. The
-// eigenvalues of the companion matrix tell the two apart: if they show the
-// same number of right-half-plane roots, and as many roots within axisTol
-// of the imaginary axis as the array found on it, the count stands; if
-// they disagree and no root is near the axis, their count is taken;
-// otherwise the report is undecided.
+// eigenvalues of the companion matrix tell the two apart. Roots within
+// axisTol of the imaginary axis are ambiguous to them, so the array's
+// count stands if it is one the eigenvalues allow: at least the roots
+// clearly in the right half plane, and with its imaginary-axis roots no
+// more than those plus the ambiguous ones. Otherwise, if no root is
+// ambiguous, the eigenvalues' count is taken; if some are, the report is
+// undecided.
 func crossCheck(rep Report, q poly.Poly) Report {
 	roots, err := q.Roots()
 	if err != nil {
 		rep.Undecided, rep.Reason = true, "the eigenvalues could not be found to confirm the count"
 		return rep
 	}
-	rhp, near := 0, 0
+	clear, near := 0, 0
 	for _, r := range roots {
 		switch {
 		case math.Abs(real(r)) <= axisTol*cmplx.Abs(r):
 			near++
 		case real(r) > 0:
-			rhp++
+			clear++
 		}
 	}
-	if rhp == rep.RHP && near == rep.JW-rep.ZeroRoots {
+	onAxis := rep.JW - rep.ZeroRoots
+	if rep.RHP >= clear && rep.RHP+onAxis <= clear+near {
 		return rep
 	}
 	if near == 0 {
