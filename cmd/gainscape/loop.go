@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -104,19 +105,10 @@ func listText(c []float64) string {
 func fixedText(l plane.Loop, skip ...int) string {
 	var parts []string
 	for i, p := range l.Family.Params() {
-		if contains(skip, i) {
+		if slices.Contains(skip, i) {
 			continue
 		}
 		parts = append(parts, fmt.Sprintf("%s = %g", p.Name, l.Values[i]))
 	}
 	return strings.Join(parts, ", ")
-}
-
-func contains(s []int, v int) bool {
-	for _, x := range s {
-		if x == v {
-			return true
-		}
-	}
-	return false
 }

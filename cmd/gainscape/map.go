@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
@@ -238,7 +239,7 @@ func checkOutputs(o scenario.Output, save string) error {
 func fixedMap(l plane.Loop, skip ...int) map[string]float64 {
 	out := map[string]float64{}
 	for i, p := range l.Family.Params() {
-		if !contains(skip, i) {
+		if !slices.Contains(skip, i) {
 			out[p.Name] = l.Values[i]
 		}
 	}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strings"
 
 	"gonum.org/v1/plot/vg"
@@ -63,7 +64,7 @@ func compute(ctx context.Context, job plane.Setup, sc scenario.Scenario, f mapFl
 	}
 	res := &mapResult{setup: job, m: m, curves: curves, demo: f.demoLabel}
 	ov := sc.Overlays
-	wantMs := len(ov.MsLevels) > 0 || contains2(ov.Best, bestIntegral)
+	wantMs := len(ov.MsLevels) > 0 || slices.Contains(ov.Best, bestIntegral)
 	if !ov.Decay && len(ov.DecayLevels) == 0 && len(ov.DampingLevels) == 0 && !wantMs && len(ov.Best) == 0 && len(ov.Marks) == 0 {
 		return res, nil
 	}
@@ -290,15 +291,6 @@ func nonNilPoints(p []pointInfo) []pointInfo {
 		return []pointInfo{}
 	}
 	return p
-}
-
-func contains2(list []string, s string) bool {
-	for _, v := range list {
-		if v == s {
-			return true
-		}
-	}
-	return false
 }
 
 // valuesList writes values as --mark takes them.
