@@ -231,13 +231,4 @@ func newTester(n int) *tester {
 // stable reports whether p has every root in the open left half plane and
 // no degree drop: the fast sign-array count, with the full analysis for its
 // special cases.
-func (t *tester) stable(p poly.Poly) bool {
-	rhp, zeros, st := routh.Count(p, t.work)
-	switch st {
-	case routh.Decided:
-		return rhp == 0 && zeros == 0
-	case routh.NeedsAnalysis:
-		return routh.Analyze(p).Stable()
-	}
-	return false
-}
+func (t *tester) stable(p poly.Poly) bool { return routh.Hurwitz(p, t.work) }

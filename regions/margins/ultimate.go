@@ -168,12 +168,5 @@ func (s *stabilityTester) stable(k float64) bool {
 		s.buf[i] += k * v
 	}
 	c := s.buf.Trim(0)
-	rhp, zeros, st := routh.Count(c, s.work)
-	switch st {
-	case routh.Decided:
-		return rhp == 0 && zeros == 0 && len(c) == n
-	case routh.NeedsAnalysis:
-		return routh.Analyze(c).Stable() && len(c) == n
-	}
-	return false
+	return len(c) == n && routh.Hurwitz(c, s.work)
 }

@@ -41,15 +41,7 @@ func (pr *prober) count(x, y float64) int { return pr.counter.Count(pr.poly(x, y
 // stable reports whether the loop at (x, y) has every root in the open
 // left half plane and no drop of degree.
 func (pr *prober) stable(x, y float64) bool {
-	p := pr.poly(x, y)
-	rhp, zeros, st := routh.Count(p, pr.work)
-	switch st {
-	case routh.Decided:
-		return rhp == 0 && zeros == 0
-	case routh.NeedsAnalysis:
-		return routh.Analyze(p).Stable()
-	}
-	return false
+	return routh.Hurwitz(pr.poly(x, y), pr.work)
 }
 
 // decayAndDamping returns the decay rate and smallest damping ratio at

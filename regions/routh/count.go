@@ -155,3 +155,17 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 	}
 	return rhp, lo, Decided
 }
+
+// Hurwitz reports whether every root of p lies in the open left half
+// plane, with no root at s = 0 and no drop of degree: the fast count where
+// it decides, the full analysis where it does not. work is as for Count.
+func Hurwitz(p, work []float64) bool {
+	rhp, zeros, st := Count(p, work)
+	switch st {
+	case Decided:
+		return rhp == 0 && zeros == 0
+	case NeedsAnalysis:
+		return Analyze(p).Stable()
+	}
+	return false
+}
