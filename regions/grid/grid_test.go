@@ -2,6 +2,7 @@ package grid
 
 import (
 	"context"
+	"math/rand/v2"
 	"testing"
 
 	"gainscape/regions/family"
@@ -83,4 +84,70 @@ func BenchmarkEvaluate(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(b.N*400*300)/b.Elapsed().Seconds(), "nodes/s")
+}
+
+// TestEveryFamilyAgainstEigenvalues maps random invented plants under
+// every controller family, in the plane of its first two parameters, and
+// checks each node against gonum's eigenvalues, skipping nodes with a root
+// within 1e-6 of the axis (relative to its magnitude).
+func TestEveryFamilyAgainstEigenvalues(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 22))
+	for trial := 0; trial < 24; trial++ {
+		fam := family.All()[trial%len(family.All())]
+		// A plant with 2 to 5 poles, some unstable, and up to 2 zeros.
+		var poles, zeros []complex128
+		for len(poles) < 2+rng.IntN(4) {
+			re := -(0.2 + 3*rng.Float64())
+			if rng.IntN(5) == 0 {
+				re = -re
+			}
+			poles = append(poles, complex(re, 0))
+		}
+		for range rng.IntN(min(3, len(poles))) {
+			zeros = append(zeros, complex(-(0.1+4*rng.Float64()), 0))
+		}
+		num := poly.FromRoots(zeros).Scaled(1 + 5*rng.Float64())
+		den := poly.FromRoots(poles)
+		vals := family.Defaults(fam)
+		ps := fam.Params()
+		x := plane.Axis{Param: ps[0].Name, Min: -2, Max: 10, N: 41}
+		y := plane.Axis{Param: "", Min: -1, Max: 5, N: 37}
+		if len(ps) < 2 {
+			continue
+		}
+		y.Param = ps[1].Name
+		s, err := plane.NewSetup(plane.Loop{PlantNum: num, PlantDen: den, Family: fam, Values: vals}, x, y)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, err := Evaluate(context.Background(), s, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for j := 0; j < y.N; j++ {
+			for i := 0; i < x.N; i++ {
+				p := s.With(s.XIndex, x.At(i), s.YIndex, y.At(j)).Characteristic()
+				roots, err := p.Roots()
+				if err != nil {
+					t.Fatal(err)
+				}
+				want, near := 0, false
+				for _, r := range roots {
+					if real(r) > 0 {
+						want++
+					}
+					if abs(real(r)) <= 1e-6*(abs(real(r))+abs(imag(r))) {
+						near = true
+					}
+				}
+				if near {
+					continue
+				}
+				if got := m.Count(i, j); got != want {
+					t.Fatalf("%s on poles %v zeros %v: node (%s=%g, %s=%g) count %d, eigenvalues %d",
+						fam.Name(), poles, zeros, x.Param, x.At(i), y.Param, y.At(j), got, want)
+				}
+			}
+		}
+	}
 }
