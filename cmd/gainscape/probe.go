@@ -14,6 +14,7 @@ import (
 	"gainscape/regions/intervals"
 	"gainscape/regions/margins"
 	"gainscape/regions/plane"
+	"gainscape/regions/poly"
 	"gainscape/regions/routh"
 	"gainscape/regions/spec"
 )
@@ -361,36 +362,7 @@ func valuesText(f family.Family, v map[string]float64) string {
 	return strings.Join(parts, ", ")
 }
 
-func polyText(desc []float64) string {
-	var b strings.Builder
-	n := len(desc) - 1
-	for i, c := range desc {
-		if c == 0 {
-			continue
-		}
-		k := n - i
-		if b.Len() > 0 {
-			if c < 0 {
-				b.WriteString(" − ")
-				c = -c
-			} else {
-				b.WriteString(" + ")
-			}
-		}
-		switch k {
-		case 0:
-			fmt.Fprintf(&b, "%.6g", c)
-		case 1:
-			fmt.Fprintf(&b, "%.6g·s", c)
-		default:
-			fmt.Fprintf(&b, "%.6g·s^%d", c, k)
-		}
-	}
-	if b.Len() == 0 {
-		return "0"
-	}
-	return b.String()
-}
+func polyText(desc []float64) string { return poly.FromDescending(desc).String() }
 
 func floatsText(v []float64) string {
 	s := make([]string, len(v))
