@@ -1,7 +1,6 @@
 package expr
 
 import (
-	"errors"
 	"strings"
 	"testing"
 )
@@ -68,22 +67,7 @@ func TestParseListErrors(t *testing.T) {
 			if err == nil {
 				t.Fatalf("ParseList(%q) = %v; want an error", tt.src, p)
 			}
-			var se *SyntaxError
-			if !errors.As(err, &se) {
-				t.Fatalf("ParseList(%q) error %v is %T, want *SyntaxError", tt.src, err, err)
-			}
-			if got := se.Column(); got != tt.col {
-				t.Errorf("ParseList(%q) error at column %d, want %d: %v", tt.src, got, tt.col, err)
-			}
-			msg := err.Error()
-			if !strings.HasPrefix(msg, "coefficient list ") {
-				t.Errorf("ParseList(%q) error %q does not start with \"coefficient list \"", tt.src, msg)
-			}
-			for _, p := range tt.phrases {
-				if !strings.Contains(msg, p) {
-					t.Errorf("ParseList(%q) error %q does not contain %q", tt.src, msg, p)
-				}
-			}
+			checkSyntaxError(t, "ParseList", "coefficient list ", tt.src, err, tt.col, tt.phrases)
 		})
 	}
 }

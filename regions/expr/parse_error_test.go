@@ -96,24 +96,10 @@ func TestParseErrors(t *testing.T) {
 			if err == nil {
 				t.Fatalf("Parse(%q) = %v, %v; want an error", tt.src, num, den)
 			}
+			checkSyntaxError(t, "Parse", "plant expression ", tt.src, err, tt.col, tt.phrases)
 			var se *SyntaxError
-			if !errors.As(err, &se) {
-				t.Fatalf("Parse(%q) error %v is %T, want *SyntaxError", tt.src, err, err)
-			}
-			if se.Src != tt.src {
+			if errors.As(err, &se) && se.Src != tt.src {
 				t.Errorf("Parse(%q) error carries source %q", tt.src, se.Src)
-			}
-			if got := se.Column(); got != tt.col {
-				t.Errorf("Parse(%q) error at column %d, want %d: %v", tt.src, got, tt.col, err)
-			}
-			msg := err.Error()
-			if !strings.HasPrefix(msg, "plant expression ") {
-				t.Errorf("Parse(%q) error %q does not start with \"plant expression \"", tt.src, msg)
-			}
-			for _, p := range tt.phrases {
-				if !strings.Contains(msg, p) {
-					t.Errorf("Parse(%q) error %q does not contain %q", tt.src, msg, p)
-				}
 			}
 		})
 	}
@@ -165,5 +151,27 @@ func TestSyntaxErrorMessage(t *testing.T) {
 				t.Errorf("Error() =\n%s\nwant\n%s", got, tt.want)
 			}
 		})
+	}
+}
+
+// checkSyntaxError asserts that err from fn(src) is a *SyntaxError at
+// column col whose message starts with prefix and contains every phrase.
+func checkSyntaxError(t *testing.T, fn, prefix, src string, err error, col int, phrases []string) {
+	t.Helper()
+	var se *SyntaxError
+	if !errors.As(err, &se) {
+		t.Fatalf("%s(%q) error %v is %T, want *SyntaxError", fn, src, err, err)
+	}
+	if got := se.Column(); got != col {
+		t.Errorf("%s(%q) error at column %d, want %d: %v", fn, src, got, col, err)
+	}
+	msg := err.Error()
+	if !strings.HasPrefix(msg, prefix) {
+		t.Errorf("%s(%q) error %q does not start with %q", fn, src, msg, prefix)
+	}
+	for _, p := range phrases {
+		if !strings.Contains(msg, p) {
+			t.Errorf("%s(%q) error %q does not contain %q", fn, src, msg, p)
+		}
 	}
 }
