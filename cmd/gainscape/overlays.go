@@ -119,7 +119,7 @@ func compute(ctx context.Context, job plane.Setup, sc scenario.Scenario, f mapFl
 // loop at the centre of the window.
 func msEvaluator(job plane.Setup) (*margins.MsEvaluator, error) {
 	centre := job.With(job.XIndex, 0.5*(job.X.Min+job.X.Max), job.YIndex, 0.5*(job.Y.Min+job.Y.Max))
-	cn, cd := centre.Family.Controller(centre.Values)
+	cn, cd := family.Controller(centre.Family, centre.Values)
 	lo, hi := margins.NewLoop(centre.PlantNum, centre.PlantDen, cn, cd).FrequencyRange()
 	// The plant's own resonances are the same at every node; the grid is
 	// enriched around them so that no narrow peak of |S| is missed.
@@ -168,7 +168,7 @@ func pointAt(job plane.Setup, x, y float64) (pointInfo, error) {
 	}
 	p.Decay, p.Damping = export.Number(margins.DecayRate(poles)), export.Number(margins.MinDamping(poles))
 	p.Stable = margins.DecayRate(poles) > 0
-	cn, cd := l.Family.Controller(l.Values)
+	cn, cd := family.Controller(l.Family, l.Values)
 	mg, err := margins.NewLoop(l.PlantNum, l.PlantDen, cn, cd).Margins()
 	p.Ms = export.Number(math.NaN())
 	if err == nil && p.Stable {

@@ -181,7 +181,7 @@ func probePoint(ctx context.Context, loop plane.Loop, f probeFlags) (*probeRepor
 	}
 	rep.DecayRate, rep.MinDamping = margins.DecayRate(poles), margins.MinDamping(poles)
 
-	cn, cd := loop.Family.Controller(loop.Values)
+	cn, cd := family.Controller(loop.Family, loop.Values)
 	mg, err := margins.NewLoop(loop.PlantNum, loop.PlantDen, cn, cd).Margins()
 	if err != nil {
 		return nil, err

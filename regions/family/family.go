@@ -23,12 +23,11 @@ type Param struct {
 // Family is a controller structure C(s) = Nc(s)/Dc(s) whose coefficients
 // depend on named parameters.
 //
-// Contract: every coefficient of Nc and Dc is affine in each parameter
+// Every coefficient of Nc and Dc is a Form: affine in each parameter
 // taken alone (no parameter multiplies itself). Then the characteristic
 // polynomial Dc·D + Nc·N is affine in each parameter too, which lets a
 // two-parameter plane be written exactly as A + x·B + y·C + x·y·E
-// (see package plane). Every family in this package honours it and a test
-// checks it.
+// (see package plane).
 type Family interface {
 	// Name is the family's command-line name, e.g. "pid".
 	Name() string
@@ -37,9 +36,16 @@ type Family interface {
 	// Params lists the parameters in a fixed order; Controller's values
 	// argument follows the same order.
 	Params() []Param
-	// Controller returns the numerator and denominator of C(s) for the
-	// given parameter values. It panics if len(values) != len(Params()).
-	Controller(values []float64) (num, den poly.Poly)
+	// Transfer returns C(s) with coefficients that are Forms of the
+	// parameters, in the order of Params.
+	Transfer() Transfer
+}
+
+// Controller returns the numerator and denominator of C(s) of f at the
+// given parameter values. It panics if len(values) != len(f.Params()).
+func Controller(f Family, values []float64) (num, den poly.Poly) {
+	checkLen(f, values)
+	return f.Transfer().Eval(values)
 }
 
 // Characteristic returns Dc·D + Nc·N, the characteristic polynomial of the

@@ -1,7 +1,5 @@
 package family
 
-import "gainscape/regions/poly"
-
 // Proportional is C(s) = kp.
 type Proportional struct{}
 
@@ -16,10 +14,10 @@ func (Proportional) Params() []Param {
 	return []Param{{"kp", 1, "proportional gain"}}
 }
 
-// Controller implements Family.
-func (f Proportional) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	return poly.Poly{v[0]}, poly.Poly{1}
+// Transfer implements Family.
+func (Proportional) Transfer() Transfer {
+	const kp = 0
+	return Transfer{Num: []Form{{Times(1, kp)}}, Den: []Form{{Const(1)}}}
 }
 
 // ProportionalIntegral is C(s) = kp + ki/s = (kp·s + ki)/s.
@@ -36,10 +34,13 @@ func (ProportionalIntegral) Params() []Param {
 	return []Param{{"kp", 1, "proportional gain"}, {"ki", 0, "integral gain"}}
 }
 
-// Controller implements Family.
-func (f ProportionalIntegral) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	return poly.Poly{v[1], v[0]}, poly.Poly{0, 1}
+// Transfer implements Family.
+func (ProportionalIntegral) Transfer() Transfer {
+	const kp, ki = 0, 1
+	return Transfer{
+		Num: []Form{{Times(1, ki)}, {Times(1, kp)}},
+		Den: []Form{nil, {Const(1)}},
+	}
 }
 
 // ProportionalDerivative is the ideal C(s) = kp + kd·s.
@@ -56,10 +57,10 @@ func (ProportionalDerivative) Params() []Param {
 	return []Param{{"kp", 1, "proportional gain"}, {"kd", 0, "derivative gain"}}
 }
 
-// Controller implements Family.
-func (f ProportionalDerivative) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	return poly.Poly{v[0], v[1]}, poly.Poly{1}
+// Transfer implements Family.
+func (ProportionalDerivative) Transfer() Transfer {
+	const kp, kd = 0, 1
+	return Transfer{Num: []Form{{Times(1, kp)}, {Times(1, kd)}}, Den: []Form{{Const(1)}}}
 }
 
 // PID is C(s) = kp + ki/s + kd·s/(tau·s + 1); tau = 0 is the ideal
@@ -86,11 +87,13 @@ func (PID) Params() []Param {
 	}
 }
 
-// Controller implements Family.
-func (f PID) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	kp, ki, kd, tau := v[0], v[1], v[2], v[3]
-	return poly.Poly{ki, kp + ki*tau, kp*tau + kd}, poly.Poly{0, 1, tau}
+// Transfer implements Family.
+func (PID) Transfer() Transfer {
+	const kp, ki, kd, tau = 0, 1, 2, 3
+	return Transfer{
+		Num: []Form{{Times(1, ki)}, {Times(1, kp), Times(1, ki, tau)}, {Times(1, kp, tau), Times(1, kd)}},
+		Den: []Form{nil, {Const(1)}, {Times(1, tau)}},
+	}
 }
 
 // FirstOrderCompensator is C(s) = k·(s + z)/(s + p). It is called a lead
@@ -114,11 +117,13 @@ func (f FirstOrderCompensator) Params() []Param {
 	return []Param{{"k", 1, "gain"}, {"z", 1, "zero location (s = -z)"}, {"p", 10, "pole location (s = -p)"}}
 }
 
-// Controller implements Family.
-func (f FirstOrderCompensator) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	k, z, p := v[0], v[1], v[2]
-	return poly.Poly{k * z, k}, poly.Poly{p, 1}
+// Transfer implements Family.
+func (FirstOrderCompensator) Transfer() Transfer {
+	const k, z, p = 0, 1, 2
+	return Transfer{
+		Num: []Form{{Times(1, k, z)}, {Times(1, k)}},
+		Den: []Form{{Times(1, p)}, {Const(1)}},
+	}
 }
 
 // LeadLag is C(s) = k·(s + z1)(s + z2)/((s + p1)(s + p2)).
@@ -141,11 +146,11 @@ func (LeadLag) Params() []Param {
 	}
 }
 
-// Controller implements Family.
-func (f LeadLag) Controller(v []float64) (num, den poly.Poly) {
-	checkLen(f, v)
-	k, z1, p1, z2, p2 := v[0], v[1], v[2], v[3], v[4]
-	num = poly.Poly{k * z1 * z2, k * (z1 + z2), k}
-	den = poly.Poly{p1 * p2, p1 + p2, 1}
-	return num, den
+// Transfer implements Family.
+func (LeadLag) Transfer() Transfer {
+	const k, z1, p1, z2, p2 = 0, 1, 2, 3, 4
+	return Transfer{
+		Num: []Form{{Times(1, k, z1, z2)}, {Times(1, k, z1), Times(1, k, z2)}, {Times(1, k)}},
+		Den: []Form{{Times(1, p1, p2)}, {Times(1, p1), Times(1, p2)}, {Const(1)}},
+	}
 }

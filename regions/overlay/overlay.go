@@ -13,6 +13,7 @@ import (
 	"fmt"
 	"math"
 
+	"gainscape/regions/family"
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
@@ -147,7 +148,7 @@ func OpenLoopLen(s plane.Setup) int {
 func newOpenLoop(s plane.Setup) openLoop {
 	at := func(x, y float64) (poly.Poly, poly.Poly) {
 		l := s.With(s.XIndex, x, s.YIndex, y)
-		cn, cd := l.Family.Controller(l.Values)
+		cn, cd := family.Controller(l.Family, l.Values)
 		return poly.Mul(cn, l.PlantNum), poly.Mul(cd, l.PlantDen)
 	}
 	n00, d00 := at(0, 0)

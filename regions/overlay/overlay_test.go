@@ -218,7 +218,7 @@ func TestComputeMs(t *testing.T) {
 				continue
 			}
 			l := s.With(s.XIndex, s.X.At(i), s.YIndex, s.Y.At(j))
-			cn, cd := l.Family.Controller(l.Values)
+			cn, cd := family.Controller(l.Family, l.Values)
 			want := sweepMs(poly.Mul(cn, l.PlantNum), poly.Mul(cd, l.PlantDen))
 			if got := g.Ms[g.At(i, j)]; math.Abs(got-want) > 1e-9*want {
 				t.Fatalf("node (%d, %d): Ms %.12g; direct %.12g", i, j, got, want)

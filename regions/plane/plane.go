@@ -39,7 +39,7 @@ type Loop struct {
 // zero: a structure that lacks a term (an ideal derivative, tau = 0) has a
 // lower degree, not a root at infinity.
 func (l Loop) Characteristic() poly.Poly {
-	cn, cd := l.Family.Controller(l.Values)
+	cn, cd := family.Controller(l.Family, l.Values)
 	return family.Characteristic(l.PlantNum, l.PlantDen, cn, cd).Trim(0)
 }
 

@@ -38,7 +38,7 @@ func TestPencilIsExactForEveryFamily(t *testing.T) {
 				pc := s.Pencil()
 				for trial := 0; trial < 20; trial++ {
 					x, y := rng.Float64()*20-10, rng.Float64()*20-10
-					cn, cd := f.Controller(s.With(xi, x, yi, y).Values)
+					cn, cd := family.Controller(f, s.With(xi, x, yi, y).Values)
 					want := family.Characteristic(num, den, cn, cd)
 					got := pc.Eval(x, y)
 					for k := range got {
