@@ -11,6 +11,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"gainscape/regions/boundary"
+	"gainscape/regions/stability"
 )
 
 // Label spacing along complex-root curves, the retry step when a
@@ -110,7 +111,7 @@ type transform = func(float64) vg.Length
 
 // curvePath is a finite piece of a boundary curve in canvas units.
 type curvePath struct {
-	kind boundary.Kind
+	kind stability.Kind
 	path []pathPoint
 }
 
@@ -172,14 +173,14 @@ func placeOmegaLabels(pl *placer, curves []curvePath) []drawnLabel {
 	for _, cv := range curves {
 		path := cv.path
 		switch cv.kind {
-		case boundary.Complex:
+		case stability.Complex:
 			sites := pl.along(path, omegaSpacing*0.45, omegaSpacing, omegaStep, box)
 			if len(sites) == 0 {
 				// A short edge still gets one label if it has room.
 				sites = pl.along(path, omegaStep, inf, omegaStep, box)
 			}
 			labels = append(labels, toLabels(sites, style, formatOmega)...)
-		case boundary.Real:
+		case stability.Real:
 			sites := pl.along(path, pathLength(path)/2, inf, omegaStep, zeroBox)
 			if len(sites) == 0 {
 				sites = pl.along(path, omegaStep, inf, omegaStep, zeroBox)

@@ -8,6 +8,7 @@ import (
 	"gainscape/regions/boundary"
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
+	"gainscape/regions/stability"
 	"gainscape/render"
 )
 
@@ -21,7 +22,7 @@ func ExampleWrite() {
 	copy(m.RHP, []int8{0, 0, 2, 0, 2, 2, 2, 2, 2})
 	fig := render.Figure{
 		Map: m,
-		Curves: []boundary.Curve{{Kind: boundary.Complex, Points: []boundary.Point{
+		Curves: []boundary.Curve{{Kind: stability.Complex, Points: []boundary.Point{
 			{X: 1.5, Y: -0.25, Omega: 1.2}, {X: 1.2, Y: 0.3, Omega: 1.25}, {X: 0.6, Y: 0.6, Omega: 1.3}, {X: -0.5, Y: 0.75, Omega: 1.4},
 		}}},
 		Title: "plant 1/(s+1)³ under PI",

@@ -18,6 +18,7 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
 	"gainscape/regions/plane"
 )
 
@@ -97,11 +98,14 @@ func (f *Field) Range() (lo, hi float64, ok bool) {
 	return lo, hi, lo <= hi
 }
 
-// ContourSet is a family of iso-lines of one field.
+// ContourSet is a family of iso-lines of one field, traced by the caller
+// (isoline.Trace) so that a figure and the data written beside it hold
+// the same lines.
 type ContourSet struct {
-	Field *Field
 	// Levels are the values at which lines are drawn.
 	Levels []float64
+	// Lines[k] are the iso-lines at Levels[k].
+	Lines [][]isoline.Line
 	// Name is written before the level in the line labels and in the
 	// legend, e.g. "Ms".
 	Name string
@@ -158,11 +162,8 @@ func (f *Figure) check() error {
 		}
 	}
 	for i, cs := range f.Contours {
-		if cs.Field == nil {
-			return fmt.Errorf("render: contour set %d (%q) has no field", i, cs.Name)
-		}
-		if err := checkField("contour field", cs.Field); err != nil {
-			return err
+		if len(cs.Lines) != len(cs.Levels) {
+			return fmt.Errorf("render: contour set %d (%q) has %d line sets for %d levels", i, cs.Name, len(cs.Lines), len(cs.Levels))
 		}
 	}
 	if f.Width < 0 || f.Height < 0 || f.DPI < 0 {

@@ -178,8 +178,8 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*pl
 	ann := annotations{fig: f}
 	for i, cs := range f.Contours {
 		set := isoSet{name: cs.Name}
-		for _, level := range cs.Levels {
-			traced := isoline.Trace(cs.Field.XAxis, cs.Field.YAxis, cs.Field.Values, level)
+		for li, level := range cs.Levels {
+			traced := cs.Lines[li]
 			lines := make([]plotter.XYs, len(traced))
 			for k, l := range traced {
 				lines[k] = lineXYs(l)

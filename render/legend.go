@@ -9,8 +9,8 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"gainscape/regions/boundary"
 	"gainscape/regions/grid"
+	"gainscape/regions/stability"
 )
 
 // The legend sits in a column to the right of the plot, so it never
@@ -72,7 +72,7 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	}
 	out = append(out, regions)
 
-	kinds := map[boundary.Kind]bool{}
+	kinds := map[stability.Kind]bool{}
 	for _, cv := range f.Curves {
 		if len(finitePieces(cv.Points)) > 0 {
 			kinds[cv.Kind] = true

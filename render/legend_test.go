@@ -4,7 +4,7 @@ import (
 	"reflect"
 	"testing"
 
-	"gainscape/regions/boundary"
+	"gainscape/regions/stability"
 )
 
 // entryTexts returns the headings and entry texts of a legend.
@@ -35,20 +35,20 @@ func TestLegendListsWhatIsPresent(t *testing.T) {
 	}{
 		{"sample", plain, map[string][]string{
 			"Region": {"stable", "1 root in RHP", "2 roots in RHP", "3 roots in RHP", "undecided"},
-			"Edge":   {kindNames[boundary.Complex], kindNames[boundary.Real], kindNames[boundary.Infinite]},
+			"Edge":   {kindNames[stability.Complex], kindNames[stability.Real], kindNames[stability.Infinite]},
 			"Marks":  {"design point"},
 		}},
 		{"no undecided, complex edge only, no marks", withoutUndecided, map[string][]string{
 			"Region": {"stable", "1 root in RHP", "2 roots in RHP", "3 roots in RHP"},
-			"Edge":   {kindNames[boundary.Complex]},
+			"Edge":   {kindNames[stability.Complex]},
 		}},
 		{"counts above six", denseFigure(), map[string][]string{
 			"Region": {"stable", "1 root in RHP", "2 roots in RHP", "3 roots in RHP", "4 roots in RHP", "5 roots in RHP", "6 or more roots in RHP"},
-			"Edge":   {kindNames[boundary.Complex]},
+			"Edge":   {kindNames[stability.Complex]},
 		}},
 		{"shaded with iso-lines", shadedFigure(), map[string][]string{
 			"Region":    {"stable", "1 root in RHP", "2 roots in RHP", "3 roots in RHP", "undecided"},
-			"Edge":      {kindNames[boundary.Complex], kindNames[boundary.Real], kindNames[boundary.Infinite]},
+			"Edge":      {kindNames[stability.Complex], kindNames[stability.Real], kindNames[stability.Infinite]},
 			"Iso-lines": {"Ms = 1.8, 3"},
 			"Marks":     {"design point"},
 		}},

@@ -11,7 +11,9 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
 	"gainscape/regions/plane"
+	"gainscape/regions/stability"
 )
 
 // writeSamples, when set, makes TestSampleImages write the sample figures
@@ -88,13 +90,23 @@ func sampleCurves() []boundary.Curve {
 		return pts
 	}
 	return []boundary.Curve{
-		{Kind: boundary.Complex, Points: arc(-0.35, math.Pi+0.35, 200, func(a float64) float64 { return 0.6 + 0.45*a })},
-		{Kind: boundary.Real, Points: arc(math.Pi+0.35, 2*math.Pi-0.35, 80, func(float64) float64 { return 0 })},
-		{Kind: boundary.Complex, Points: line(cornerX, 4.05, cornerX, cornerY, 30, 2.9, 2.4)},
-		{Kind: boundary.Complex, Points: line(cornerX, cornerY, 6.05, cornerY, 30, 2.4, 3.1)},
-		{Kind: boundary.Infinite, Points: line(cornerX+0.8, -0.05, cornerX+0.8, 0.8, 10, math.NaN(), math.NaN())},
-		{Kind: boundary.Real, Points: line(cornerX+0.8, 0.8, 6.05, 0.8, 10, 0, 0)},
+		{Kind: stability.Complex, Points: arc(-0.35, math.Pi+0.35, 200, func(a float64) float64 { return 0.6 + 0.45*a })},
+		{Kind: stability.Real, Points: arc(math.Pi+0.35, 2*math.Pi-0.35, 80, func(float64) float64 { return 0 })},
+		{Kind: stability.Complex, Points: line(cornerX, 4.05, cornerX, cornerY, 30, 2.9, 2.4)},
+		{Kind: stability.Complex, Points: line(cornerX, cornerY, 6.05, cornerY, 30, 2.4, 3.1)},
+		{Kind: stability.Infinite, Points: line(cornerX+0.8, -0.05, cornerX+0.8, 0.8, 10, math.NaN(), math.NaN())},
+		{Kind: stability.Real, Points: line(cornerX+0.8, 0.8, 6.05, 0.8, 10, 0, 0)},
 	}
+}
+
+// contourOf traces the iso-lines of field at levels, as the caller of
+// the package does.
+func contourOf(field *Field, levels []float64, name string) ContourSet {
+	cs := ContourSet{Levels: levels, Name: name}
+	for _, level := range levels {
+		cs.Lines = append(cs.Lines, isoline.Trace(field.XAxis, field.YAxis, field.Values, level))
+	}
+	return cs
 }
 
 // sampleField returns a field over the sample axes computed by f, NaN
@@ -140,7 +152,7 @@ func shadedFigureOn(xa, ya plane.Axis) Figure {
 	f.Map = sampleMapOn(xa, ya)
 	f.Shade = sampleFieldOn(xa, ya, "decay rate σ (1/s)", decayOfRadius)
 	ms := sampleFieldOn(xa, ya, "Ms", msOfRadius)
-	f.Contours = []ContourSet{{Field: ms, Levels: []float64{1.8, 3}, Name: "Ms"}}
+	f.Contours = []ContourSet{contourOf(ms, []float64{1.8, 3}, "Ms")}
 	return f
 }
 
@@ -175,10 +187,10 @@ func isoFigure() Figure {
 		}
 	}
 	f.Contours = []ContourSet{
-		{Field: f.Shade, Levels: []float64{0.3, 0.6}, Name: "σ"},
-		{Field: damping, Levels: []float64{0.4, 0.7}, Name: "ζ"},
+		contourOf(f.Shade, []float64{0.3, 0.6}, "σ"),
+		contourOf(damping, []float64{0.4, 0.7}, "ζ"),
 		f.Contours[0],
-		{Field: fourth, Levels: []float64{0.4}, Name: "q"},
+		contourOf(fourth, []float64{0.4}, "q"),
 	}
 	return f
 }
@@ -288,7 +300,7 @@ func denseFigure() Figure {
 			xv := x.Min + (x.Max-x.Min)*float64(i)/float64(len(pts)-1)
 			pts[i] = boundary.Point{X: xv, Y: band(xv, k), Omega: 0.3*float64(k) + 0.1*xv}
 		}
-		curves = append(curves, boundary.Curve{Kind: boundary.Complex, Points: pts})
+		curves = append(curves, boundary.Curve{Kind: stability.Complex, Points: pts})
 	}
 	for j := 0; j < y.N; j++ {
 		for i := 0; i < x.N; i++ {

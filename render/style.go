@@ -10,7 +10,7 @@ import (
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 
-	"gainscape/regions/boundary"
+	"gainscape/regions/stability"
 )
 
 // The figure is set in the sans-serif Liberation face that gonum/plot
@@ -67,12 +67,12 @@ const curveWidth = vg.Length(1.5)
 // in dash pattern, not in colour, so they survive greyscale printing:
 // complex-pair edges (the common case, carrying ω labels) are solid,
 // real-root edges dashed and edges through infinity dotted.
-func curveStyle(k boundary.Kind) draw.LineStyle {
+func curveStyle(k stability.Kind) draw.LineStyle {
 	s := draw.LineStyle{Color: inkColour, Width: curveWidth}
 	switch k {
-	case boundary.Real:
+	case stability.Real:
 		s.Dashes = []vg.Length{6, 3}
-	case boundary.Infinite:
+	case stability.Infinite:
 		s.Dashes = []vg.Length{1.5, 2.5}
 		s.Width = 1.8
 	}
@@ -85,14 +85,14 @@ func haloStyle() draw.LineStyle {
 }
 
 // kindNames are the legend texts of the boundary kinds.
-var kindNames = map[boundary.Kind]string{
-	boundary.Complex:  "pair crosses at ±jω",
-	boundary.Real:     "real root crosses at 0",
-	boundary.Infinite: "root crosses at ∞",
+var kindNames = map[stability.Kind]string{
+	stability.Complex:  "pair crosses at ±jω",
+	stability.Real:     "real root crosses at 0",
+	stability.Infinite: "root crosses at ∞",
 }
 
 // kindOrder is the order of boundary kinds in the legend.
-var kindOrder = []boundary.Kind{boundary.Complex, boundary.Real, boundary.Infinite}
+var kindOrder = []stability.Kind{stability.Complex, stability.Real, stability.Infinite}
 
 // Iso-line sets are told apart twice over, so either cue suffices: by
 // dash pattern, which survives greyscale print, and by hue. Each set's

@@ -201,7 +201,7 @@ func TestWriteRejectsBadData(t *testing.T) {
 			f.Map = grid.NewMap(sampleX, plane.Axis{Param: "ki", Min: 2, Max: 2, N: 40})
 		}, "[2, 2]"},
 		{"shade size", func(f *Figure) { f.Shade = okField(); f.Shade.Values = f.Shade.Values[:3] }, "3 values"},
-		{"contour without field", func(f *Figure) { f.Contours = []ContourSet{{Name: "Ms"}} }, `("Ms") has no field`},
+		{"contour lines missing", func(f *Figure) { f.Contours = []ContourSet{{Name: "Ms", Levels: []float64{1.4}}} }, `("Ms") has 0 line sets for 1 levels`},
 		{"negative size", func(f *Figure) { f.Width = -1 }, "negative"},
 	}
 	for _, tc := range tests {

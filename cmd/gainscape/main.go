@@ -19,6 +19,8 @@ import (
 	"io"
 	"os"
 	"os/signal"
+
+	"gainscape/regions/study"
 )
 
 // Exit codes: 2 for a problem with what the user gave (flags, files,
@@ -39,7 +41,7 @@ func (e usageError) Unwrap() error { return e.err }
 func userErr(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
 
 // caution is printed with every report and written into notes.
-const caution = "Caution: these results describe the linear model given. Validate the design against actuator limits, saturation, noise and model error; safety-related loops follow the applicable codes and a qualified engineer's review."
+const caution = study.Caution
 
 const overview = `gainscape — stability maps of feedback loops in controller-parameter planes
 
@@ -97,7 +99,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		return exitInterrupted
 	}
 	var ue usageError
-	if errors.As(err, &ue) {
+	if errors.As(err, &ue) || study.IsInput(err) {
 		return exitUsage
 	}
 	return exitInternal

@@ -5,18 +5,15 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
-	"slices"
 	"strings"
 	"time"
 
 	"github.com/spf13/pflag"
 
 	"gainscape/internal/safefile"
-	"gainscape/regions/boundary"
 	"gainscape/regions/export"
-	"gainscape/regions/grid"
-	"gainscape/regions/plane"
 	"gainscape/regions/scenario"
+	"gainscape/regions/study"
 	"gainscape/render"
 )
 
@@ -105,7 +102,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if err != nil {
 		return err
 	}
-	job, err := setupFromScenario(sc)
+	job, err := study.NewMap(sc)
 	if err != nil {
 		return err
 	}
@@ -120,18 +117,20 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		// The image goes to stdout, so the report goes to stderr.
 		stdout = stderr
 	}
-	if w := scalingWarning(job); w != "" && !f.quiet {
-		fmt.Fprintln(stderr, w)
+	if !f.quiet {
+		for _, w := range job.Warnings() {
+			fmt.Fprintln(stderr, w)
+		}
 	}
 
 	start := time.Now()
-	res, err := compute(ctx, job, sc, f, stderr)
+	res, err := job.Run(ctx, study.Options{Workers: f.workers, Progress: progressFor(stderr, f.quiet)})
 	if err != nil {
 		return err
 	}
-	res.elapsed = time.Since(start)
+	elapsed := time.Since(start)
 
-	fig := figureOf(res, sc, f.plantLabel(sc))
+	fig := figureOf(res, sc, f.demoLabel)
 	if sc.Output.Image == "-" {
 		if err := render.Write(stdoutFile, format, fig); err != nil {
 			return err
@@ -139,7 +138,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	} else if err := safefile.Write(sc.Output.Image, func(w io.Writer) error { return render.Write(w, format, fig) }); err != nil {
 		return err
 	}
-	if err := writeExports(res, sc, f); err != nil {
+	if err := writeExports(res, sc); err != nil {
 		return err
 	}
 	if f.save != "" {
@@ -148,7 +147,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		}
 	}
 	if !f.quiet {
-		printSummary(stdout, res, sc, f)
+		printSummary(stdout, res, sc, f, elapsed)
 	}
 	return nil
 }
@@ -187,21 +186,6 @@ func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) 
 	return sc, nil
 }
 
-// setupFromScenario builds the loop and the plane of a scenario.
-func setupFromScenario(sc scenario.Scenario) (plane.Setup, error) {
-	loop, err := makeLoop(sc.Loop.Plant, sc.Loop.Numerator, sc.Loop.Denominator, sc.Loop.Controller, sc.Fixed)
-	if err != nil {
-		return plane.Setup{}, err
-	}
-	x := plane.Axis{Param: sc.Axes.X.Param, Min: sc.Axes.X.Min, Max: sc.Axes.X.Max, N: sc.Axes.Columns}
-	y := plane.Axis{Param: sc.Axes.Y.Param, Min: sc.Axes.Y.Min, Max: sc.Axes.Y.Max, N: sc.Axes.Rows}
-	s, err := plane.NewSetup(loop, x, y)
-	if err != nil {
-		return plane.Setup{}, userErr("--x %s --y %s: %v", axisText(sc.Axes.X), axisText(sc.Axes.Y), err)
-	}
-	return s, nil
-}
-
 // imageFormat returns "png" or "svg" from --format or the image extension.
 func imageFormat(image, format string) (string, error) {
 	if format != "" {
@@ -236,16 +220,6 @@ func checkOutputs(o scenario.Output, save string) error {
 	return nil
 }
 
-func fixedMap(l plane.Loop, skip ...int) map[string]float64 {
-	out := map[string]float64{}
-	for i, p := range l.Family.Params() {
-		if !slices.Contains(skip, i) {
-			out[p.Name] = l.Values[i]
-		}
-	}
-	return out
-}
-
 // firstLine returns the first line of a possibly joined error.
 func firstLine(err error) string {
 	s, _, _ := strings.Cut(err.Error(), "\n")
@@ -253,10 +227,10 @@ func firstLine(err error) string {
 }
 
 // writeExports writes the data, CSV and note files a scenario asks for.
-func writeExports(res *mapResult, sc scenario.Scenario, f mapFlags) error {
+func writeExports(res *study.MapResult, sc scenario.Scenario) error {
 	o := sc.Output
 	if o.CSV != "" {
-		if err := safefile.Write(o.CSV, func(w io.Writer) error { return writeCSV(w, res.setup, res.curves) }); err != nil {
+		if err := safefile.Write(o.CSV, func(w io.Writer) error { return writeCSV(w, res) }); err != nil {
 			return err
 		}
 	}
@@ -267,25 +241,14 @@ func writeExports(res *mapResult, sc scenario.Scenario, f mapFlags) error {
 				link = filepath.ToSlash(rel)
 			}
 		}
-		if err := safefile.Write(o.Note, func(w io.Writer) error { return writeNote(w, res, sc, f.plantLabel(sc), link) }); err != nil {
+		if err := safefile.Write(o.Note, func(w io.Writer) error { return writeNote(w, res, sc, link) }); err != nil {
 			return err
 		}
 	}
 	if o.Data != "" {
-		doc := dataOf(res, sc, f.plantLabel(sc))
-		if err := safefile.Write(o.Data, func(w io.Writer) error { return export.Write(w, doc) }); err != nil {
+		if err := safefile.Write(o.Data, func(w io.Writer) error { return export.Write(w, res.Data()) }); err != nil {
 			return err
 		}
 	}
 	return nil
-}
-
-// mapResult is everything computed for one map.
-type mapResult struct {
-	setup   plane.Setup
-	m       *grid.Map
-	curves  []boundary.Curve
-	over    *overlays
-	elapsed time.Duration
-	demo    string
 }

@@ -8,6 +8,7 @@ import (
 	"gainscape/regions/expr"
 	"gainscape/regions/scenario"
 	"gainscape/regions/spec"
+	"gainscape/regions/study"
 )
 
 // toScenario reads the flags into a scenario. Only flags for which given
@@ -93,8 +94,8 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 
 // Names of the best-point searches.
 const (
-	bestDecay    = "decay" // the largest decay rate in the window
-	bestIntegral = "ki"    // the largest integral gain with Ms at most the bound
+	bestDecay    = study.BestDecay
+	bestIntegral = study.BestIntegral
 )
 
 // numberList reads "0.2, 0.5" (or "none" or "" for no values).
@@ -130,14 +131,6 @@ func parseSize(s string) (w, h float64, err error) {
 		return 0, 0, fmt.Errorf("each side must be %g to %g cm", float64(scenario.MinSizeCm), float64(scenario.MaxSizeCm))
 	}
 	return w, h, nil
-}
-
-// plantLabel is the plant as the scenario gives it, for titles and reports.
-func (f mapFlags) plantLabel(sc scenario.Scenario) string {
-	if sc.Loop.Plant != "" {
-		return sc.Loop.Plant
-	}
-	return fmt.Sprintf("(%s)/(%s)", numbersText(sc.Loop.Numerator), numbersText(sc.Loop.Denominator))
 }
 
 func axisText(a spec.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }

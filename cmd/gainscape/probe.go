@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -10,13 +9,10 @@ import (
 
 	"github.com/spf13/pflag"
 
-	"gainscape/regions/family"
-	"gainscape/regions/intervals"
-	"gainscape/regions/margins"
-	"gainscape/regions/plane"
+	"gainscape/regions/export"
 	"gainscape/regions/poly"
-	"gainscape/regions/routh"
 	"gainscape/regions/spec"
+	"gainscape/regions/study"
 )
 
 const probeHelp = `gainscape probe — how stable and how robust one design point is
@@ -80,135 +76,29 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	if fs.NArg() > 0 {
 		return userErr("unexpected argument %q (see gainscape help probe)", fs.Arg(0))
 	}
-	loop, err := f.buildLoop()
+	ls, err := f.spec()
 	if err != nil {
 		return err
 	}
 	if f.vary != "" {
-		return runVary(loop, f, stdout)
+		return runVary(ls, f, stdout)
 	}
-	rep, err := probePoint(ctx, loop, f)
+	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y})
 	if err != nil {
 		return err
 	}
 	if f.json {
-		enc := json.NewEncoder(stdout)
-		enc.SetIndent("", " ")
-		return enc.Encode(rep)
+		return export.Write(stdout, rep.Doc)
 	}
 	printProbe(stdout, rep)
 	return nil
 }
 
-// probeReport is everything probe says about one design point. Its JSON
-// field names are a stable contract.
-type probeReport struct {
-	Plant          string             `json:"plant"`
-	Controller     string             `json:"controller"`
-	Values         map[string]float64 `json:"values"`
-	Characteristic []float64          `json:"characteristic"` // highest power first
-	SignArray      []signRow          `json:"sign_array"`
-	Aux            []float64          `json:"auxiliary_polynomial,omitempty"`
-	Stable         bool               `json:"stable"`
-	CountFrom      string             `json:"count_from"`
-	RHP            int                `json:"rhp"`
-	JW             int                `json:"jw_roots"`
-	JWOmegas       []float64          `json:"jw_omegas"`
-	DegreeDrop     int                `json:"degree_drop"`
-	Poles          [][2]float64       `json:"poles"`
-	DecayRate      float64            `json:"decay_rate"`
-	MinDamping     float64            `json:"min_damping"`
-	GainMargin     *float64           `json:"gain_margin"`
-	GainMarginDB   *float64           `json:"gain_margin_db"`
-	PhaseCrossover *float64           `json:"phase_crossover"`
-	PhaseMargin    *float64           `json:"phase_margin_deg"`
-	GainCrossover  *float64           `json:"gain_crossover"`
-	Ms             float64            `json:"ms"`
-	MsFreq         *float64           `json:"ms_freq"`
-	Mt             float64            `json:"mt"`
-	MtFreq         *float64           `json:"mt_freq"`
-	Fragility      *fragilityReport   `json:"fragility,omitempty"`
-	Ultimate       *ultimateReport    `json:"ultimate,omitempty"`
-	Caution        string             `json:"caution"`
-}
-
-type signRow struct {
-	Power     int      `json:"power"`
-	Entries   []string `json:"entries"`
-	Epsilon   bool     `json:"epsilon_rule,omitempty"`
-	Auxiliary bool     `json:"from_auxiliary,omitempty"`
-}
-
-type ultimateReport struct {
-	Ku    float64        `json:"ku"`
-	Tu    float64        `json:"tu"`
-	Rules []margins.Rule `json:"rules"`
-}
-
-// probePoint computes the report for the loop's parameter values.
-func probePoint(ctx context.Context, loop plane.Loop, f probeFlags) (*probeReport, error) {
-	char := loop.Characteristic()
-	if !char.Finite() {
-		return nil, userErr("--set %q: the characteristic polynomial has non-finite coefficients", f.set)
-	}
-	rep := &probeReport{
-		Plant: f.plantText(), Controller: loop.Family.Name(),
-		Values: fixedMap(loop), Characteristic: char.Descending(), Caution: caution,
-	}
-	ra := routh.Analyze(char)
-	if ra.Undecided {
-		return nil, fmt.Errorf("the sign-array test cannot decide this point: %s", ra.Reason)
-	}
-	for _, r := range ra.Rows {
-		rep.SignArray = append(rep.SignArray, signRow{Power: r.Power, Entries: r.Entries, Epsilon: r.Epsilon, Auxiliary: r.Auxiliary})
-	}
-	if ra.Aux != nil {
-		rep.Aux = ra.Aux.Descending()
-	}
-	rep.RHP, rep.JW, rep.DegreeDrop, rep.Stable = ra.RHP, ra.JW, ra.DegreeDrop, ra.Stable()
-	rep.CountFrom = "sign array"
-	if ra.FromEigenvalues {
-		rep.CountFrom = "eigenvalues"
-	}
-	rep.JWOmegas = append([]float64{}, ra.Omegas...)
-
-	poles, err := margins.Poles(char)
-	if err != nil {
-		return nil, err
-	}
-	for _, p := range poles {
-		rep.Poles = append(rep.Poles, [2]float64{real(p), imag(p)})
-	}
-	rep.DecayRate, rep.MinDamping = margins.DecayRate(poles), margins.MinDamping(poles)
-
-	cn, cd := family.Controller(loop.Family, loop.Values)
-	mg, err := margins.NewLoop(loop.PlantNum, loop.PlantDen, cn, cd).Margins()
-	if err != nil {
-		return nil, err
-	}
-	rep.GainMargin, rep.PhaseCrossover = margins.Nullable(mg.GainMargin), margins.Nullable(mg.PhaseCrossover)
-	if rep.GainMargin != nil {
-		rep.GainMarginDB = margins.Nullable(margins.DB(mg.GainMargin))
-	}
-	rep.PhaseMargin, rep.GainCrossover = margins.Nullable(mg.PhaseMargin), margins.Nullable(mg.GainCrossover)
-	rep.Ms, rep.MsFreq, rep.Mt, rep.MtFreq = mg.Ms, margins.Nullable(mg.MsFreq), mg.Mt, margins.Nullable(mg.MtFreq)
-
-	if fr, err := fragility(ctx, loop, f.x, f.y); err != nil {
-		return nil, err
-	} else {
-		rep.Fragility = fr
-	}
-	if ku, tu, ok := margins.Ultimate(loop.PlantNum, loop.PlantDen); ok {
-		rep.Ultimate = &ultimateReport{Ku: ku, Tu: tu, Rules: margins.UltimateCycleRules(ku, tu)}
-	}
-	return rep, nil
-}
-
 // printProbe writes the report for a person.
-func printProbe(w io.Writer, r *probeReport) {
-	fam, _ := family.Lookup(r.Controller)
+func printProbe(w io.Writer, rep *study.ProbeReport) {
+	r := rep.Doc
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
-	fmt.Fprintf(w, "controller   %s with %s\n", fam.Formula(), valuesText(fam, r.Values))
+	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
 	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
 	fmt.Fprintln(w, "Routh sign array (first column decides):")
 	for _, row := range r.SignArray {
@@ -254,13 +144,13 @@ func printProbe(w io.Writer, r *probeReport) {
 		}
 	}
 	fmt.Fprintf(w, "decay rate   σ = %.4g 1/s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, r.MinDamping)
-	if r.GainMargin != nil {
-		fmt.Fprintf(w, "gain margin  %.4g (%.3g dB) at the phase crossover ω = %.4g rad/s\n", *r.GainMargin, *r.GainMarginDB, *r.PhaseCrossover)
+	if r.GainMargin.Valid() {
+		fmt.Fprintf(w, "gain margin  %.4g (%.3g dB) at the phase crossover ω = %.4g rad/s\n", float64(r.GainMargin), float64(r.GainMarginDB), float64(r.PhaseCrossover))
 	} else {
 		fmt.Fprintln(w, "gain margin  infinite (the phase never reaches −180°)")
 	}
-	if r.PhaseMargin != nil {
-		fmt.Fprintf(w, "phase margin %.4g° at the gain crossover ω = %.4g rad/s\n", *r.PhaseMargin, *r.GainCrossover)
+	if r.PhaseMargin.Valid() {
+		fmt.Fprintf(w, "phase margin %.4g° at the gain crossover ω = %.4g rad/s\n", float64(r.PhaseMargin), float64(r.GainCrossover))
 	} else {
 		fmt.Fprintln(w, "phase margin infinite (|L| never equals 1)")
 	}
@@ -282,84 +172,60 @@ func printProbe(w io.Writer, r *probeReport) {
 	fmt.Fprintln(w, caution)
 }
 
+// printFragility writes the fragility lines of the probe report.
+func printFragility(w io.Writer, fr *export.Fragility) {
+	xn, yn := fr.Plane[0], fr.Plane[1]
+	if !fr.Found {
+		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
+			xn, yn, xn, fr.Window[0], fr.Window[1], yn, fr.Window[2], fr.Window[3])
+		return
+	}
+	edge := func(n *export.NearestEdge) string {
+		switch n.Kind.String() {
+		case "complex":
+			return fmt.Sprintf("a complex pair crosses at ω = %.4g rad/s", float64(n.Omega))
+		case "real":
+			return "a real root crosses through s = 0"
+		}
+		return "a root passes through infinity"
+	}
+	a, r := fr.Absolute, fr.Relative
+	fmt.Fprintf(w, "nearest edge in the %s–%s plane: %.4g away at (%s, %s) = (%.4g, %.4g), where %s\n",
+		xn, yn, a.Distance, xn, yn, a.Point[0], a.Point[1], edge(a))
+	fmt.Fprintf(w, "             relative to the gains: %.3g%% away at (%.4g, %.4g), where %s\n",
+		100*r.Distance, r.Point[0], r.Point[1], edge(r))
+}
+
 // runVary prints the stable intervals of one parameter.
-func runVary(loop plane.Loop, f probeFlags, w io.Writer) error {
+func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 	ax, err := spec.ParseAxis(f.vary)
 	if err != nil {
 		return userErr("--vary: %v", err)
 	}
-	idx, err := family.Index(loop.Family, ax.Param)
+	rep, err := study.Vary(study.VaryRequest{Loop: ls, Range: ax, Text: f.vary})
 	if err != nil {
-		return userErr("--vary %q: %v", f.vary, err)
-	}
-	ivs, err := intervals.Stable(loop, idx, ax.Min, ax.Max)
-	if err != nil {
-		return userErr("--vary %q: %v", f.vary, err)
-	}
-	type jsonInterval struct {
-		Lo      float64  `json:"lo"`
-		Hi      float64  `json:"hi"`
-		LoKind  string   `json:"lo_kind"`
-		HiKind  string   `json:"hi_kind"`
-		LoOmega *float64 `json:"lo_omega"`
-		HiOmega *float64 `json:"hi_omega"`
-	}
-	out := struct {
-		Plant      string             `json:"plant"`
-		Controller string             `json:"controller"`
-		Param      string             `json:"param"`
-		Min        float64            `json:"min"`
-		Max        float64            `json:"max"`
-		Fixed      map[string]float64 `json:"fixed"`
-		Intervals  []jsonInterval     `json:"intervals"`
-		Caution    string             `json:"caution"`
-	}{f.plantText(), loop.Family.Name(), ax.Param, ax.Min, ax.Max, fixedMap(loop, idx), []jsonInterval{}, caution}
-	for _, iv := range ivs {
-		out.Intervals = append(out.Intervals, jsonInterval{iv.Lo, iv.Hi, iv.LoKind, iv.HiKind, margins.Nullable(iv.LoOmega), margins.Nullable(iv.HiOmega)})
+		return err
 	}
 	if f.json {
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", " ")
-		return enc.Encode(out)
+		return export.Write(w, rep.Doc)
 	}
-	fmt.Fprintf(w, "plant        G(s) = %s\n", f.plantText())
-	fmt.Fprintf(w, "controller   %s", loop.Family.Formula())
-	if fx := fixedText(loop, idx); fx != "" {
+	fmt.Fprintf(w, "plant        G(s) = %s\n", rep.Doc.Plant)
+	fmt.Fprintf(w, "controller   %s", rep.Formula)
+	if fx := study.ValuesText(rep.Fixed); fx != "" {
 		fmt.Fprintf(w, " with %s", fx)
 	}
 	fmt.Fprintf(w, "\nscanning     %s from %g to %g\n\n", ax.Param, ax.Min, ax.Max)
-	if len(ivs) == 0 {
+	if len(rep.Intervals) == 0 {
 		fmt.Fprintf(w, "The loop is not stable for any %s in the range.\n", ax.Param)
 	}
-	for _, iv := range ivs {
-		// Adding zero turns a negative zero from the search into +0.
-		fmt.Fprintf(w, "stable for %.10g < %s < %.10g\n", iv.Lo+0, ax.Param, iv.Hi+0)
-		fmt.Fprintf(w, "  lower end: %s\n", endText(iv.LoKind, iv.LoOmega))
-		fmt.Fprintf(w, "  upper end: %s\n", endText(iv.HiKind, iv.HiOmega))
+	for _, iv := range rep.Intervals {
+		fmt.Fprintf(w, "stable for %.10g < %s < %.10g\n", iv.Lo, ax.Param, iv.Hi)
+		fmt.Fprintf(w, "  lower end: %s\n", iv.LoEnd)
+		fmt.Fprintf(w, "  upper end: %s\n", iv.HiEnd)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)
 	return nil
-}
-
-func endText(kind string, omega float64) string {
-	switch kind {
-	case intervals.Real:
-		return "a real root crosses through s = 0 (the loop drifts away, ω = 0)"
-	case intervals.Complex:
-		return fmt.Sprintf("a complex pair crosses the imaginary axis: the loop oscillates at ω = %.6g rad/s (period %.4g s)", omega, 2*math.Pi/omega)
-	case intervals.Infinite:
-		return "a root passes through infinity (the leading coefficient vanishes)"
-	}
-	return "the end of the range scanned"
-}
-
-func valuesText(f family.Family, v map[string]float64) string {
-	var parts []string
-	for _, p := range f.Params() {
-		parts = append(parts, fmt.Sprintf("%s = %g", p.Name, v[p.Name]))
-	}
-	return strings.Join(parts, ", ")
 }
 
 func polyText(desc []float64) string { return poly.FromDescending(desc).String() }
@@ -372,11 +238,11 @@ func floatsText(v []float64) string {
 	return strings.Join(s, ", ")
 }
 
-func optText(v *float64) string {
-	if v == nil {
+func optText(v export.Number) string {
+	if !v.Valid() {
 		return "∞"
 	}
-	return fmt.Sprintf("%.4g", *v)
+	return fmt.Sprintf("%.4g", float64(v))
 }
 
 func pad(s []string, n int) []string {

@@ -60,3 +60,12 @@ func (p *progress) finish() {
 		fmt.Fprintf(p.w, "\r%s\r", strings.Repeat(" ", len(p.label)+40))
 	}
 }
+
+// progressFor returns the study's progress callback: one bar per stage on
+// w.
+func progressFor(w io.Writer, quiet bool) func(stage string, total int) (func(int), func()) {
+	return func(stage string, total int) (func(int), func()) {
+		bar := newProgress(w, stage, total, quiet)
+		return bar.set, bar.finish
+	}
+}

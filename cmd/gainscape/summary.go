@@ -8,52 +8,46 @@ import (
 	"path/filepath"
 	"time"
 
-	"gainscape/regions/boundary"
 	"gainscape/regions/export"
-	"gainscape/regions/plane"
 	"gainscape/regions/scenario"
+	"gainscape/regions/stability"
+	"gainscape/regions/study"
 )
 
 // printSummary writes the text report of a map.
-func printSummary(w io.Writer, res *mapResult, sc scenario.Scenario, f mapFlags) {
-	s, m, curves := res.setup, res.m, res.curves
-	st := m.Stats()
-	if res.demo != "" {
-		fmt.Fprintf(w, "%s (run with --plant to map your own loop)\n", res.demo)
+func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f mapFlags, elapsed time.Duration) {
+	st := res.Stats
+	if f.demoLabel != "" {
+		fmt.Fprintf(w, "%s (run with --plant to map your own loop)\n", f.demoLabel)
 	}
-	fmt.Fprintf(w, "plant       G(s) = %s\n", f.plantLabel(sc))
-	fmt.Fprintf(w, "controller  %s", s.Family.Formula())
-	if fixed := fixedText(s.Loop, s.XIndex, s.YIndex); fixed != "" {
+	fmt.Fprintf(w, "plant       G(s) = %s\n", res.Plant)
+	fmt.Fprintf(w, "controller  %s", res.Formula)
+	if fixed := study.ValuesText(res.Fixed); fixed != "" {
 		fmt.Fprintf(w, "; fixed %s", fixed)
 	}
 	fmt.Fprintln(w)
+	x, y := res.X, res.Y
 	fmt.Fprintf(w, "window      %s %g…%g (%d nodes) × %s %g…%g (%d nodes)\n",
-		s.X.Param, s.X.Min, s.X.Max, s.X.N, s.Y.Param, s.Y.Min, s.Y.Max, s.Y.N)
+		x.Param, x.Min, x.Max, x.N, y.Param, y.Min, y.Max, y.N)
 	if st.Stable > 0 {
 		fmt.Fprintf(w, "stable      %.1f%% of the window; stable nodes span %s %.4g…%.4g, %s %.4g…%.4g\n",
-			100*st.StableFraction(), s.X.Param, st.XMin, st.XMax, s.Y.Param, st.YMin, st.YMax)
+			100*st.StableFraction(), x.Param, st.XMin, st.XMax, y.Param, st.YMin, st.YMax)
 	} else {
 		fmt.Fprintf(w, "stable      no stable node in the window (most unstable: %d roots in the right half plane)\n", st.MaxRHP)
 	}
-	counts := map[boundary.Kind]int{}
-	for _, c := range curves {
-		counts[c.Kind]++
-	}
 	fmt.Fprintf(w, "edges       %d complex-pair, %d real-root, %d through-infinity curves\n",
-		counts[boundary.Complex], counts[boundary.Real], counts[boundary.Infinite])
-	if lo, hi, ok := export.OmegaRange(curves); ok {
+		res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Infinite])
+	if lo, hi, ok := res.OmegaRange(); ok {
 		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g rad/s along the complex-pair edges\n", lo, hi)
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
 	}
-	if res.over != nil {
-		for _, p := range append(append([]pointInfo(nil), res.over.marks...), res.over.best...) {
-			fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), s.X.Param, p.X, s.Y.Param, p.Y, pointFigures(p))
-		}
+	for _, p := range points(res) {
+		fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), x.Param, p.X, y.Param, p.Y, pointFigures(p))
 	}
-	rate := float64(st.Nodes) / res.elapsed.Seconds()
-	fmt.Fprintf(w, "nodes       %d evaluated, edges refined and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, res.elapsed.Round(time.Millisecond), rate)
+	rate := float64(st.Nodes) / elapsed.Seconds()
+	fmt.Fprintf(w, "nodes       %d evaluated, edges refined and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, elapsed.Round(time.Millisecond), rate)
 	if sc.Output.Image != "-" {
 		fmt.Fprintf(w, "image       %s\n", sc.Output.Image)
 	}
@@ -65,7 +59,15 @@ func printSummary(w io.Writer, res *mapResult, sc scenario.Scenario, f mapFlags)
 	fmt.Fprintln(w, caution)
 }
 
-func pointName(p pointInfo) string {
+// points returns the marked points, then the found ones.
+func points(res *study.MapResult) []export.Point {
+	if res.Overlays == nil {
+		return nil
+	}
+	return append(append([]export.Point(nil), res.Overlays.Marks...), res.Overlays.Best...)
+}
+
+func pointName(p export.Point) string {
 	if p.Criterion != "" {
 		return p.Label
 	}
@@ -73,7 +75,7 @@ func pointName(p pointInfo) string {
 }
 
 // pointFigures says how stable and robust a point is, in words.
-func pointFigures(p pointInfo) string {
+func pointFigures(p export.Point) string {
 	if !p.Stable {
 		return "not stable"
 	}
@@ -96,26 +98,4 @@ func dirExists(path string) error {
 		return fmt.Errorf("directory %s does not exist", dir)
 	}
 	return nil
-}
-
-// scalingWarning returns a warning when the characteristic polynomial's
-// coefficients at the window's corners span so many decades that products
-// in the sign array approach the limits of double precision; nodes where
-// that happens are reported as undecided rather than guessed.
-func scalingWarning(s plane.Setup) string {
-	pc := s.Pencil()
-	lo, hi := math.Inf(1), 0.0
-	for _, x := range []float64{s.X.Min, s.X.Max} {
-		for _, y := range []float64{s.Y.Min, s.Y.Max} {
-			for _, c := range pc.Eval(x, y) {
-				if a := math.Abs(c); a != 0 {
-					lo, hi = math.Min(lo, a), math.Max(hi, a)
-				}
-			}
-		}
-	}
-	if hi > 1e100 || lo < 1e-100 || hi/lo > 1e150 {
-		return fmt.Sprintf("warning: characteristic coefficients range from %.3g to %.3g; the sign array may lose meaning, and nodes it cannot decide are marked undecided — consider rescaling time (s) or gains", lo, hi)
-	}
-	return ""
 }

@@ -1,76 +1,35 @@
 package boundary
 
-import "gainscape/regions/grid"
+import (
+	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
+)
 
-// join links refined crossings into polylines by marching squares: inside
-// each grid cell the crossings on its four edges are paired into segments,
-// and segments sharing a crossing are chained.
-func join(m *grid.Map, edges []edgeKey, found []crossing, at map[edgeKey]int) []Curve {
-	n := len(edges)
-	adj := make([][]int, n)
-	link := func(a, b int) {
-		adj[a] = append(adj[a], b)
-		adj[b] = append(adj[b], a)
+// join links refined crossings into polylines by marching squares
+// (isoline.Segments and isoline.Chain): inside each grid cell the crossings
+// on its edges are paired into segments, a saddle cell being resolved by
+// its counts, and segments sharing a crossing are chained. Chains are
+// then cut where the kind of crossing changes.
+func join(m *grid.Map, edges []edgeKey, found []crossing) []Curve {
+	at := make(map[edgeKey]int, len(edges))
+	for k, e := range edges {
+		at[e] = k
 	}
-	nx, ny := m.XAxis.N, m.YAxis.N
-	for j := 0; j+1 < ny; j++ {
-		for i := 0; i+1 < nx; i++ {
-			// Edges in order around the cell: bottom, right, top, left.
-			around := [4]edgeKey{{i, j, true}, {i + 1, j, false}, {i, j + 1, true}, {i, j, false}}
-			var idx []int
-			for _, e := range around {
-				if v, ok := at[e]; ok {
-					idx = append(idx, v)
-				}
-			}
-			switch len(idx) {
-			case 2, 3:
-				link(idx[0], idx[1])
-			case 4:
-				// Saddle: the corners that share a count with the
-				// bottom-left corner across the diagonal decide the pairing.
-				if m.Count(i, j) == m.Count(i+1, j+1) && m.Count(i+1, j) != m.Count(i, j) {
-					// Bottom-left and top-right joined: cut off the other corners.
-					link(idx[0], idx[1]) // bottom–right around (i+1, j)
-					link(idx[2], idx[3]) // top–left around (i, j+1)
-				} else {
-					link(idx[3], idx[0]) // left–bottom around (i, j)
-					link(idx[1], idx[2]) // right–top around (i+1, j+1)
-				}
-			}
+	crossingAt := func(i, j int, horiz bool) int {
+		if k, ok := at[edgeKey{i, j, horiz}]; ok {
+			return k
 		}
+		return -1
 	}
-	seen := make([]bool, n)
+	// A saddle joins bottom-left and top-right when those two corners
+	// share a count and the bottom-right one differs.
+	saddle := func(i, j int) bool {
+		return m.Count(i, j) == m.Count(i+1, j+1) && m.Count(i+1, j) != m.Count(i, j)
+	}
+	segs := isoline.Segments(m.XAxis.N, m.YAxis.N, nil, crossingAt, saddle)
 	var curves []Curve
-	walk := func(start int) {
-		chain := []int{start}
-		seen[start] = true
-		for cur := start; ; {
-			next := -1
-			for _, v := range adj[cur] {
-				if !seen[v] {
-					next = v
-					break
-				}
-			}
-			if next < 0 {
-				break
-			}
-			seen[next] = true
-			chain = append(chain, next)
-			cur = next
-		}
+	for _, chain := range isoline.Chain(len(edges), segs) {
 		curves = append(curves, split(chain, found)...)
-	}
-	for k := 0; k < n; k++ {
-		if !seen[k] && len(adj[k]) != 2 {
-			walk(k)
-		}
-	}
-	for k := 0; k < n; k++ {
-		if !seen[k] {
-			walk(k)
-		}
 	}
 	return curves
 }

@@ -3,13 +3,11 @@ package boundary
 import (
 	"context"
 	"math"
-	"runtime"
-	"sync"
 
+	"gainscape/internal/pool"
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
-	"gainscape/regions/poly"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // Tolerance is the bisection stopping width as a fraction of the span of
@@ -19,7 +17,7 @@ const Tolerance = 1e-9
 // crossing is one refined point on a grid edge.
 type crossing struct {
 	pt   Point
-	kind Kind
+	kind stability.Kind
 }
 
 // edgeKey names a grid edge: from node (i, j) to (i+1, j) when horiz, or to
@@ -31,12 +29,12 @@ type edgeKey struct {
 
 // Trace finds every grid edge whose two nodes have different
 // right-half-plane counts, bisects along it to the crossing (to Tolerance
-// of the axis span), classifies the crossing from the sign array there
-// (routh.ClassifyCrossing), and joins the crossings into polylines by
-// marching squares. Curves are split where their kind changes. Edges are
-// refined in parallel; the result does not depend on the worker count.
+// of the axis span) with the setup's stability test, classifies the
+// crossing there (stability.Test.Classify), and joins the crossings into
+// polylines by marching squares. Curves are split where their kind
+// changes. Edges are refined in parallel; the result does not depend on
+// the worker count.
 func Trace(ctx context.Context, s plane.Setup, m *grid.Map, workers int) ([]Curve, error) {
-	pencil := s.Pencil()
 	var edges []edgeKey
 	nx, ny := m.XAxis.N, m.YAxis.N
 	differs := func(a, b int) bool { return a != b && a != grid.Undecided && b != grid.Undecided }
@@ -51,37 +49,22 @@ func Trace(ctx context.Context, s plane.Setup, m *grid.Map, workers int) ([]Curv
 		}
 	}
 	found := make([]crossing, len(edges))
-	if workers <= 0 {
-		workers = runtime.NumCPU()
+	type scratch struct {
+		counter stability.Counter
+		buf     *plane.Scratch
 	}
-	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		wg.Add(1)
-		go func(w int) {
-			defer wg.Done()
-			c := grid.NewCounter(pencil.Len())
-			p := make(poly.Poly, pencil.Len())
-			for k := w; k < len(edges); k += workers {
-				if ctx.Err() != nil {
-					return
-				}
-				found[k] = refine(pencil, c, p, m, edges[k])
-			}
-		}(w)
-	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
+	newScratch := func() scratch { return scratch{s.NewCounter(), s.NewScratch()} }
+	err := pool.Each(ctx, len(edges), workers, nil, newScratch, func(w scratch, k int) {
+		found[k] = refine(s, w.counter, w.buf, m, edges[k])
+	})
+	if err != nil {
 		return nil, err
 	}
-	at := make(map[edgeKey]int, len(edges))
-	for k, e := range edges {
-		at[e] = k
-	}
-	return join(m, edges, found, at), nil
+	return join(m, edges, found), nil
 }
 
 // refine bisects edge e between its two nodes, which have different counts.
-func refine(pc plane.Pencil, c *grid.Counter, p poly.Poly, m *grid.Map, e edgeKey) crossing {
+func refine(s plane.Setup, c stability.Counter, buf *plane.Scratch, m *grid.Map, e edgeKey) crossing {
 	x0, y0 := m.XAxis.At(e.i), m.YAxis.At(e.j)
 	var x1, y1, span float64
 	var end int
@@ -91,13 +74,14 @@ func refine(pc plane.Pencil, c *grid.Counter, p poly.Poly, m *grid.Map, e edgeKe
 		x1, y1, span, end = x0, m.YAxis.At(e.j+1), m.YAxis.Span(), m.Count(e.i, e.j+1)
 	}
 	start := m.Count(e.i, e.j)
+	count := func(x, y float64) int { return c.Count(s.Function(buf, x, y)).Unstable }
 	lo, hi := 0.0, 1.0
 	point := func(t float64) (float64, float64) { return x0 + t*(x1-x0), y0 + t*(y1-y0) }
 	width := math.Abs(x1-x0) + math.Abs(y1-y0)
 	for (hi-lo)*width > Tolerance*span {
 		mid := 0.5 * (lo + hi)
 		x, y := point(mid)
-		switch c.Count(pc.EvalInto(p, x, y)) {
+		switch count(x, y) {
 		case start:
 			lo = mid
 		case end:
@@ -106,18 +90,10 @@ func refine(pc plane.Pencil, c *grid.Counter, p poly.Poly, m *grid.Map, e edgeKe
 			// A third count inside the edge: keep the half next to start,
 			// which still holds a change of count.
 			hi = mid
-			x, y = point(hi)
-			end = c.Count(pc.EvalInto(p, x, y))
+			end = count(point(hi))
 		}
 	}
 	x, y := point(0.5 * (lo + hi))
-	cr := routh.ClassifyCrossing(pc.EvalInto(p, x, y))
-	kind := Complex
-	switch cr.Vanishing {
-	case "constant":
-		kind = Real
-	case "leading":
-		kind = Infinite
-	}
-	return crossing{pt: Point{X: x, Y: y, Omega: cr.Omega}, kind: kind}
+	cr := s.Test().Classify(s.Function(buf, x, y))
+	return crossing{pt: Point{X: x, Y: y, Omega: cr.Omega}, kind: cr.Kind}
 }

@@ -8,13 +8,15 @@ import (
 
 	"gainscape/regions/family"
 	"gainscape/regions/grid"
+	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 func mapOf(t *testing.T, num, den poly.Poly, f family.Family, values []float64, x, y plane.Axis, workers int) (plane.Setup, *grid.Map, []Curve) {
 	t.Helper()
-	s, err := plane.NewSetup(plane.Loop{PlantNum: num, PlantDen: den, Family: f, Values: values}, x, y)
+	s, err := plane.NewSetup(loop.Loop{Plant: loop.Plant{Num: num, Den: den}, Family: f, Values: values}, x, y)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -74,13 +76,13 @@ func TestDPartitionAgainstHandDerivedCurves(t *testing.T) {
 			for _, c := range curves {
 				for _, p := range c.Points {
 					switch c.Kind {
-					case Complex:
+					case stability.Complex:
 						nComplex++
 						wx, wy := tc.complexCurve(p.Omega)
 						if math.Abs(wx-p.X) > 1e-6*tc.x.Span() || math.Abs(wy-p.Y) > 1e-6*tc.y.Span() {
 							t.Fatalf("complex point (%g, %g) with ω = %g; the hand-derived curve gives (%g, %g)", p.X, p.Y, p.Omega, wx, wy)
 						}
-					case Real:
+					case stability.Real:
 						nReal++
 						if !tc.onReal(p.X, p.Y) || p.Omega != 0 {
 							t.Fatalf("real point (%g, %g) ω = %g is off the hand-derived line", p.X, p.Y, p.Omega)
@@ -106,7 +108,7 @@ func TestInfiniteBoundary(t *testing.T) {
 		plane.Axis{Param: "kp", Min: 0, Max: 5, N: 60}, plane.Axis{Param: "kd", Min: -3, Max: 2, N: 60}, 0)
 	n := 0
 	for _, c := range curves {
-		if c.Kind != Infinite {
+		if c.Kind != stability.Infinite {
 			continue
 		}
 		for _, p := range c.Points {

@@ -1,5 +1,8 @@
-// Package export writes a stability map and its boundaries as JSON data,
-// so that a figure can be re-made or checked with other software.
+// Package export defines the JSON documents gainscape writes: the map
+// with its edges and overlays (--data) and the reports of one design
+// point (probe --json). Every document is a typed struct, and every
+// number that may be missing is a Number, which writes NaN and ±Inf as
+// null: the one way a missing number is written.
 package export
 
 import (
@@ -7,13 +10,32 @@ import (
 	"io"
 	"math"
 
-	"gainscape/regions/boundary"
-	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
 	"gainscape/regions/plane"
+	"gainscape/regions/stability"
 )
 
-// Region is the JSON document. Its fields x, y, rhp and boundaries are the
-// stable contract; the others describe the scenario and may grow.
+// Number is a float64 that encodes NaN and ±Inf as JSON null.
+type Number float64
+
+// MarshalJSON implements json.Marshaler.
+func (n Number) MarshalJSON() ([]byte, error) {
+	f := float64(n)
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return []byte("null"), nil
+	}
+	return json.Marshal(f)
+}
+
+// Valid reports whether n is a number that is written, neither NaN nor
+// infinite.
+func (n Number) Valid() bool {
+	f := float64(n)
+	return !math.IsNaN(f) && !math.IsInf(f, 0)
+}
+
+// Region is the --data document. Its fields x, y, rhp and boundaries are
+// the stable contract; the others describe the scenario and may grow.
 type Region struct {
 	Plant      string             `json:"plant"`
 	Controller string             `json:"controller"`
@@ -25,16 +47,16 @@ type Region struct {
 	RHP        [][]int    `json:"rhp"`
 	Boundaries []Boundary `json:"boundaries"`
 	Summary    Summary    `json:"summary"`
-	// Extra holds further named layers (overlays, searches) added by the
-	// caller; each value must be JSON-encodable.
-	Extra map[string]any `json:"extra,omitempty"`
+	// Extra holds the overlays and the marked and found points, when any
+	// were asked for.
+	Extra *Extra `json:"extra,omitempty"`
 }
 
 // Boundary is one boundary polyline; each point is [x, y, ω] with ω null
 // where it is undefined (roots through infinity).
 type Boundary struct {
-	Kind   boundary.Kind `json:"kind"`
-	Points [][3]Number   `json:"points"`
+	Kind   stability.Kind `json:"kind"`
+	Points [][3]Number    `json:"points"`
 }
 
 // Summary repeats the figures of the text summary.
@@ -49,58 +71,63 @@ type Summary struct {
 	OmegaRange *[2]float64 `json:"omega_range"`
 }
 
-// Number is a float64 that encodes NaN and ±Inf as JSON null.
-type Number float64
-
-// MarshalJSON implements json.Marshaler.
-func (n Number) MarshalJSON() ([]byte, error) {
-	f := float64(n)
-	if math.IsNaN(f) || math.IsInf(f, 0) {
-		return []byte("null"), nil
-	}
-	return json.Marshal(f)
+// Extra holds what is drawn over the map.
+type Extra struct {
+	Best     []Point  `json:"best"`
+	Marks    []Point  `json:"marks"`
+	Overlays Overlays `json:"overlays"`
 }
 
-// NewRegion assembles the document for a map and its boundaries.
-func NewRegion(m *grid.Map, curves []boundary.Curve) *Region {
-	r := &Region{X: m.XAxis, Y: m.YAxis, RHP: m.Rows(), Boundaries: []Boundary{}}
-	for _, c := range curves {
-		b := Boundary{Kind: c.Kind, Points: make([][3]Number, len(c.Points))}
-		for k, p := range c.Points {
-			b.Points[k] = [3]Number{Number(p.X), Number(p.Y), Number(p.Omega)}
-		}
-		r.Boundaries = append(r.Boundaries, b)
-	}
-	st := m.Stats()
-	r.Summary = Summary{Nodes: st.Nodes, StableNodes: st.Stable, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
-	if st.Stable > 0 {
-		r.Summary.StableBox = &[4]float64{st.XMin, st.XMax, st.YMin, st.YMax}
-	}
-	if lo, hi, ok := OmegaRange(curves); ok {
-		r.Summary.OmegaRange = &[2]float64{lo, hi}
-	}
-	return r
+// Overlays holds each overlay grid that was computed.
+type Overlays struct {
+	DecayRate  *Layer `json:"decay_rate,omitempty"`
+	MinDamping *Layer `json:"min_damping,omitempty"`
+	Ms         *Layer `json:"ms,omitempty"`
 }
 
-// OmegaRange returns the smallest and largest ω on complex-root boundaries.
-func OmegaRange(curves []boundary.Curve) (lo, hi float64, ok bool) {
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for _, c := range curves {
-		if c.Kind != boundary.Complex {
-			continue
-		}
-		for _, p := range c.Points {
-			if !math.IsNaN(p.Omega) {
-				lo, hi, ok = math.Min(lo, p.Omega), math.Max(hi, p.Omega), true
-			}
-		}
-	}
-	return lo, hi, ok
+// Layer is one overlay: its value at every node, row by row (row 0 at
+// y = min, null outside the stable region), the levels asked for and the
+// very iso-lines drawn at each.
+type Layer struct {
+	Contours []Contour  `json:"contours"`
+	Levels   []float64  `json:"levels"`
+	Values   [][]Number `json:"values"`
 }
 
-// Write encodes r as indented JSON.
-func Write(w io.Writer, r *Region) error {
+// Contour is the iso-lines of one level.
+type Contour struct {
+	Level float64        `json:"level"`
+	Lines []isoline.Line `json:"lines"`
+}
+
+// Point is a marked or found design point with its figures.
+type Point struct {
+	Label     string             `json:"label"`
+	Criterion string             `json:"criterion,omitempty"`
+	Values    map[string]float64 `json:"values"`
+	X         float64            `json:"x"`
+	Y         float64            `json:"y"`
+	Stable    bool               `json:"stable"`
+	Decay     Number             `json:"decay_rate"`
+	Damping   Number             `json:"min_damping"`
+	Ms        Number             `json:"ms"`
+}
+
+// Rows lays a row-major slice of nx·ny values out as rows, row 0 first.
+func Rows(v []float64, nx, ny int) [][]Number {
+	rows := make([][]Number, ny)
+	for j := range rows {
+		rows[j] = make([]Number, nx)
+		for i := range rows[j] {
+			rows[j][i] = Number(v[j*nx+i])
+		}
+	}
+	return rows
+}
+
+// Write encodes doc as indented JSON.
+func Write(w io.Writer, doc any) error {
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", " ")
-	return enc.Encode(r)
+	return enc.Encode(doc)
 }

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"gainscape/regions/family"
+	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
 )
@@ -17,7 +18,7 @@ import (
 func TestEvaluateAgainstEigenvalues(t *testing.T) {
 	// Invented plant 2/((s+1)(s+0.5)(0.3s+1)²) under PID with kd = 0.4, tau = 0.1.
 	den := poly.Mul(poly.Poly{1, 1}, poly.Mul(poly.Poly{0.5, 1}, poly.Poly{1, 0.3}.Pow(2)))
-	loop := plane.Loop{PlantNum: poly.Poly{2}, PlantDen: den, Family: family.PID{}, Values: []float64{0, 0, 0.4, 0.1}}
+	loop := loop.Loop{Plant: loop.Plant{Num: poly.Poly{2}, Den: den}, Family: family.PID{}, Values: []float64{0, 0, 0.4, 0.1}}
 	s, err := plane.NewSetup(loop, plane.Axis{Param: "kp", Min: -2, Max: 10, N: 61}, plane.Axis{Param: "ki", Min: -1, Max: 5, N: 41})
 	if err != nil {
 		t.Fatal(err)
@@ -83,7 +84,7 @@ func abs(x float64) float64 {
 // the demo-like PID plane.
 func BenchmarkEvaluate(b *testing.B) {
 	den := poly.Mul(poly.Poly{0.5, 1}, poly.Mul(poly.Poly{2, 1}, poly.Poly{1, 0.4}.Pow(2)))
-	loop := plane.Loop{PlantNum: poly.Poly{3}, PlantDen: den, Family: family.PID{}, Values: []float64{0, 0, 0.5, 0.05}}
+	loop := loop.Loop{Plant: loop.Plant{Num: poly.Poly{3}, Den: den}, Family: family.PID{}, Values: []float64{0, 0, 0.5, 0.05}}
 	s, _ := plane.NewSetup(loop, plane.Axis{Param: "kp", Min: -1, Max: 8, N: 400}, plane.Axis{Param: "ki", Min: -0.5, Max: 4, N: 300})
 	b.ReportAllocs()
 	for b.Loop() {
@@ -124,7 +125,7 @@ func TestEveryFamilyAgainstEigenvalues(t *testing.T) {
 			continue
 		}
 		y.Param = ps[1].Name
-		s, err := plane.NewSetup(plane.Loop{PlantNum: num, PlantDen: den, Family: fam, Values: vals}, x, y)
+		s, err := plane.NewSetup(loop.Loop{Plant: loop.Plant{Num: num, Den: den}, Family: fam, Values: vals}, x, y)
 		if err != nil {
 			t.Fatal(err)
 		}

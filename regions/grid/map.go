@@ -3,12 +3,15 @@
 // right-half-plane root counts.
 package grid
 
-import "gainscape/regions/plane"
+import (
+	"gainscape/regions/plane"
+	"gainscape/regions/stability"
+)
 
 // Undecided marks a node where the sign-array test could not decide the
 // count (coefficients non-finite or beyond the range where the test keeps
 // its meaning).
-const Undecided = -1
+const Undecided = stability.Undecided
 
 // Map is the right-half-plane root count of the closed loop at every node
 // of a grid. RHP[j*XAxis.N+i] belongs to node (XAxis.At(i), YAxis.At(j));

@@ -5,7 +5,7 @@ import (
 
 	"gainscape/regions/family"
 	"gainscape/regions/intervals"
-	"gainscape/regions/plane"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
 )
 
@@ -15,13 +15,8 @@ import (
 // the package tests).
 func ExampleStable() {
 	f, _ := family.Lookup("p")
-	loop := plane.Loop{
-		PlantNum: poly.Poly{1},
-		PlantDen: poly.FromDescending([]float64{1, 3, 3, 1}),
-		Family:   f,
-		Values:   []float64{1},
-	}
-	ivs, err := intervals.Stable(loop, 0, -10, 10)
+	l := loop.New(loop.Plant{Num: poly.Poly{1}, Den: poly.FromDescending([]float64{1, 3, 3, 1})}, f)
+	ivs, err := intervals.Stable(l, 0, -10, 10)
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -21,32 +21,22 @@ import (
 	"math"
 	"sort"
 
-	"gainscape/regions/plane"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
-// Kinds of interval ends. The first three are the D-partition boundary
-// kinds; Window marks an end set by the search window, not by the loop.
-const (
-	// Real: a real root passes through s = 0; ω = 0.
-	Real = "real"
-	// Complex: a pair of roots crosses the imaginary axis at ±jω.
-	Complex = "complex"
-	// Infinite: a root passes through infinity (the leading coefficient of
-	// the characteristic polynomial vanishes, so its degree drops); ω is NaN.
-	Infinite = "infinite"
-	// Window: the interval is cut by the end of the search window; ω is NaN.
-	Window = "window"
-)
+// Window is the kind of an interval end set by the search window, not by
+// the loop: stability.None, since no root crosses there.
+const Window = stability.None
 
 // Interval is one maximal interval (Lo, Hi) of parameter values for which
-// the closed loop is stable. The kinds say what ends it on each side and
-// the omegas give the frequency of the crossing roots there (0 for Real,
-// NaN for Infinite and Window).
+// the closed loop is stable. The kinds say what ends it on each side (a
+// D-partition boundary kind, or Window) and the omegas give the frequency
+// of the crossing roots there (0 for Real, NaN for Infinite and Window).
 type Interval struct {
 	Lo, Hi           float64
-	LoKind, HiKind   string
+	LoKind, HiKind   stability.Kind
 	LoOmega, HiOmega float64
 }
 
@@ -78,28 +68,31 @@ const nearZero = 1e-6
 // lo < hi, or a loop whose characteristic polynomial is not finite or is
 // identically zero. It panics if param is not an index of
 // loop.Family.Params().
-func Stable(loop plane.Loop, param int, lo, hi float64) ([]Interval, error) {
-	np := len(loop.Family.Params())
+func Stable(l loop.Loop, param int, lo, hi float64) ([]Interval, error) {
+	np := len(l.Family.Params())
 	if param < 0 || param >= np {
 		panic(fmt.Sprintf("intervals: parameter index %d out of range for %d parameters", param, np))
 	}
-	name := loop.Family.Params()[param].Name
+	name := l.Family.Params()[param].Name
 	if math.IsNaN(lo) || math.IsNaN(hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) || !(lo < hi) {
 		return nil, fmt.Errorf("stable intervals of %s: window [%g, %g] must be finite with lower end below upper end", name, lo, hi)
 	}
-	ln, err := newLine(loop, param)
+	ln, err := newLine(l, param)
 	if err != nil {
 		return nil, fmt.Errorf("stable intervals of %s: %w", name, err)
 	}
-	s := search{line: ln, lo: lo, hi: hi, test: newTester(ln.len())}
+	test := l.Test()
+	s := search{line: ln, lo: lo, hi: hi, test: test, counter: test.NewCounter(ln.len()), p: make(poly.Poly, ln.len())}
 	return s.run(), nil
 }
 
 // search holds the state of one call of Stable.
 type search struct {
-	line   line
-	lo, hi float64
-	test   *tester
+	line    line
+	lo, hi  float64
+	test    stability.Test
+	counter stability.Counter
+	p       poly.Poly // scratch
 }
 
 // tol returns the bisection width at parameter value k.
@@ -107,8 +100,18 @@ func (s *search) tol(k float64) float64 {
 	return bisectTol * math.Max(math.Abs(k), nearZero*(s.hi-s.lo))
 }
 
-// stable reports whether the loop is stable at k.
-func (s *search) stable(k float64) bool { return s.test.stable(s.line.at(s.test.p, k)) }
+// stable reports whether the loop is stable at k: no root in the closed
+// right half plane and no drop of degree.
+func (s *search) stable(k float64) bool {
+	return s.counter.Count(stability.Function{P: s.line.at(s.p, k)}).Stable()
+}
+
+// classify names the crossing at k, which lies on a boundary to within
+// rounding.
+func (s *search) classify(k float64) candidate {
+	cr := s.test.Classify(stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), k)})
+	return candidate{kind: cr.Kind, omega: cr.Omega}
+}
 
 // group is a set of candidate boundary values that agree to within the
 // bisection tolerance, treated as one break point.
@@ -186,13 +189,13 @@ func (s *search) run() []Interval {
 // windowEnd describes an interval end at a window end k: a boundary of the
 // loop if a candidate lies there or the loop is not stable at k itself
 // (then the sign array at k names the crossing), the window otherwise.
-func (s *search) windowEnd(k float64, at []candidate) (float64, string, float64) {
+func (s *search) windowEnd(k float64, at []candidate) (float64, stability.Kind, float64) {
 	if len(at) > 0 {
 		c := s.pick(at, k)
 		return k, c.kind, c.omega
 	}
 	if !s.stable(k) {
-		c := classify(s.line.at(make(poly.Poly, s.line.len()), k))
+		c := s.classify(k)
 		return k, c.kind, c.omega
 	}
 	return k, Window, math.NaN()
@@ -207,7 +210,7 @@ func (s *search) windowEnd(k float64, at []candidate) (float64, string, float64)
 // The analytic value is kept if bisection confirms it; otherwise the
 // bisection midpoint is returned, which guards against rounding in the
 // candidate.
-func (s *search) refine(g group, a, b float64, aStable bool) (float64, string, float64) {
+func (s *search) refine(g group, a, b float64, aStable bool) (float64, stability.Kind, float64) {
 	bStable := s.stable(b)
 	if aStable == bStable {
 		// A touching point between two stable pieces: no bracket exists,
@@ -244,7 +247,7 @@ func (s *search) refine(g group, a, b float64, aStable bool) (float64, string, f
 
 // pick chooses the candidate that describes the crossing at k. With one
 // candidate, or several of one kind, it is that kind; when kinds differ,
-// the sign array at k decides (routh.ClassifyCrossing).
+// the loop's stability test at k decides.
 func (s *search) pick(cs []candidate, k float64) candidate {
 	same := true
 	for _, c := range cs[1:] {
@@ -253,27 +256,14 @@ func (s *search) pick(cs []candidate, k float64) candidate {
 	if same {
 		return cs[0]
 	}
-	want := classify(s.line.at(make(poly.Poly, s.line.len()), k))
+	want := s.classify(k)
 	best := cs[0]
 	for _, c := range cs {
 		if c.kind == want.kind {
-			if want.kind != Complex || math.Abs(c.omega-want.omega) < math.Abs(best.omega-want.omega) || best.kind != Complex {
+			if want.kind != stability.Complex || math.Abs(c.omega-want.omega) < math.Abs(best.omega-want.omega) || best.kind != stability.Complex {
 				best = c
 			}
 		}
 	}
 	return best
-}
-
-// classify names the crossing of p, which lies on a boundary to within
-// rounding, from its sign array (routh.ClassifyCrossing).
-func classify(p poly.Poly) candidate {
-	cr := routh.ClassifyCrossing(p)
-	switch cr.Vanishing {
-	case "constant":
-		return candidate{kind: Real, omega: 0}
-	case "leading":
-		return candidate{kind: Infinite, omega: math.NaN()}
-	}
-	return candidate{kind: Complex, omega: cr.Omega}
 }

@@ -6,12 +6,13 @@ import (
 	"testing"
 
 	"gainscape/regions/family"
-	"gainscape/regions/plane"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // loopOf builds a loop from plant coefficients listed highest power first.
-func loopOf(t testing.TB, num, den []float64, fam string, values ...float64) plane.Loop {
+func loopOf(t testing.TB, num, den []float64, fam string, values ...float64) loop.Loop {
 	t.Helper()
 	f, err := family.Lookup(fam)
 	if err != nil {
@@ -20,7 +21,7 @@ func loopOf(t testing.TB, num, den []float64, fam string, values ...float64) pla
 	if len(values) != len(f.Params()) {
 		t.Fatalf("%d values for %s", len(values), fam)
 	}
-	return plane.Loop{PlantNum: poly.FromDescending(num), PlantDen: poly.FromDescending(den), Family: f, Values: values}
+	return loop.Loop{Plant: loop.Plant{Num: poly.FromDescending(num), Den: poly.FromDescending(den)}, Family: f, Values: values}
 }
 
 // tol is the comparison tolerance of the hand-derived checks: 1e-9
@@ -56,7 +57,7 @@ func TestStableHandDerived(t *testing.T) {
 			// vanishes and the auxiliary 3s²+9 gives ω = √3.
 			num: []float64{1}, den: []float64{1, 3, 3, 1}, fam: "p", values: []float64{1},
 			param: 0, lo: -5, hi: 20,
-			want: []Interval{{-1, 8, Real, Complex, 0, math.Sqrt(3)}},
+			want: []Interval{{-1, 8, stability.Real, stability.Complex, 0, math.Sqrt(3)}},
 		},
 		{
 			name: "P on 1/(s(s+1)(s+2))",
@@ -65,7 +66,7 @@ func TestStableHandDerived(t *testing.T) {
 			// the s² row gives the auxiliary 3s²+6, ω = √2.
 			num: []float64{1}, den: []float64{1, 3, 2, 0}, fam: "p", values: []float64{1},
 			param: 0, lo: -2, hi: 10,
-			want: []Interval{{0, 6, Real, Complex, 0, math.Sqrt2}},
+			want: []Interval{{0, 6, stability.Real, stability.Complex, 0, math.Sqrt2}},
 		},
 		{
 			name: "P on 1/(s(s²+s+1)(s+2))",
@@ -76,7 +77,7 @@ func TestStableHandDerived(t *testing.T) {
 			// K = 14/9 the auxiliary (7/3)s²+14/9 gives ω = √(2/3).
 			num: []float64{1}, den: []float64{1, 3, 3, 2, 0}, fam: "p", values: []float64{1},
 			param: 0, lo: -1, hi: 5,
-			want: []Interval{{0, 14.0 / 9, Real, Complex, 0, math.Sqrt(2.0 / 3)}},
+			want: []Interval{{0, 14.0 / 9, stability.Real, stability.Complex, 0, math.Sqrt(2.0 / 3)}},
 		},
 		{
 			name: "PI, ki varied, on 1/(s+1)^2 with kp = 2",
@@ -85,7 +86,7 @@ func TestStableHandDerived(t *testing.T) {
 			// 2s²+6 gives ω = √3.
 			num: []float64{1}, den: []float64{1, 2, 1}, fam: "pi", values: []float64{2, 0},
 			param: 1, lo: -1, hi: 10,
-			want: []Interval{{0, 6, Real, Complex, 0, math.Sqrt(3)}},
+			want: []Interval{{0, 6, stability.Real, stability.Complex, 0, math.Sqrt(3)}},
 		},
 		{
 			name: "PD, kd varied, plant of relative degree 1",
@@ -97,7 +98,7 @@ func TestStableHandDerived(t *testing.T) {
 			// infinity. The window cuts the interval at 5.
 			num: []float64{1, 2}, den: []float64{1, 3, 1}, fam: "pd", values: []float64{1, 0},
 			param: 1, lo: -3, hi: 5,
-			want: []Interval{{-1, 5, Infinite, Window, nan, nan}},
+			want: []Interval{{-1, 5, stability.Infinite, Window, nan, nan}},
 		},
 		{
 			name: "two intervals",
@@ -109,8 +110,8 @@ func TestStableHandDerived(t *testing.T) {
 			num: []float64{1, 1, 4}, den: []float64{1, 0, 0, -3}, fam: "p", values: []float64{1},
 			param: 0, lo: 0, hi: 10,
 			want: []Interval{
-				{0.75, 1, Real, Complex, 0, 1},
-				{3, 10, Complex, Window, math.Sqrt(3), nan},
+				{0.75, 1, stability.Real, stability.Complex, 0, 1},
+				{3, 10, stability.Complex, Window, math.Sqrt(3), nan},
 			},
 		},
 		{
@@ -122,8 +123,8 @@ func TestStableHandDerived(t *testing.T) {
 			num: []float64{1, 1, 2}, den: []float64{1, 0, 0, -1}, fam: "p", values: []float64{1},
 			param: 0, lo: 0, hi: 3,
 			want: []Interval{
-				{0.5, 1, Real, Complex, 0, 1},
-				{1, 3, Complex, Window, 1, nan},
+				{0.5, 1, stability.Real, stability.Complex, 0, 1},
+				{1, 3, stability.Complex, Window, 1, nan},
 			},
 		},
 		{
@@ -146,7 +147,7 @@ func TestStableHandDerived(t *testing.T) {
 			// stable interval: the ends are the loop's, not the window's.
 			num: []float64{1}, den: []float64{1, 3, 2, 0}, fam: "p", values: []float64{1},
 			param: 0, lo: 0, hi: 6,
-			want: []Interval{{0, 6, Real, Complex, 0, math.Sqrt2}},
+			want: []Interval{{0, 6, stability.Real, stability.Complex, 0, math.Sqrt2}},
 		},
 	}
 	for _, tc := range tests {
@@ -229,12 +230,12 @@ func TestStableIsScaleInvariant(t *testing.T) {
 			{
 				name: "P on α³/(s+α)³",
 				num:  []float64{a * a * a}, den: []float64{1, 3 * a, 3 * a * a, a * a * a},
-				want: Interval{-1, 8, Real, Complex, 0, a * math.Sqrt(3)},
+				want: Interval{-1, 8, stability.Real, stability.Complex, 0, a * math.Sqrt(3)},
 			},
 			{
 				name: "P on α⁴/(s(s²+αs+α²)(s+2α))",
 				num:  []float64{a * a * a * a}, den: poly.Mul(poly.Poly{0, 1}, poly.Mul(poly.Poly{a * a, a, 1}, poly.Poly{2 * a, 1})).Descending(),
-				want: Interval{0, 14.0 / 9, Real, Complex, 0, a * math.Sqrt(2.0/3)},
+				want: Interval{0, 14.0 / 9, stability.Real, stability.Complex, 0, a * math.Sqrt(2.0/3)},
 			},
 		}
 		for _, tc := range tests {

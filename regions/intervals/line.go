@@ -5,15 +5,14 @@ import (
 	"math"
 	"math/cmplx"
 
+	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // line is the characteristic polynomial along one parameter,
-// p(s; k) = a(s) + k·b(s). Every family's characteristic polynomial is
-// affine in each parameter alone (the family.Family contract), so the two
-// evaluations at k = 0 and k = 1 determine a and b up to rounding.
+// p(s; k) = a(s) + k·b(s) (plane.NewLine).
 type line struct {
 	a, b poly.Poly // equal lengths
 }
@@ -22,16 +21,10 @@ type line struct {
 // are exactly zero for every k are dropped: the structure lacks that term
 // (an ideal derivative, say), so the polynomial simply has a lower degree,
 // which is no degree drop.
-func newLine(loop plane.Loop, param int) (line, error) {
-	p0 := loop.With(param, 0, param, 0).Characteristic()
-	p1 := loop.With(param, 1, param, 1).Characteristic()
-	n := max(len(p0), len(p1))
-	a, b := make(poly.Poly, n), make(poly.Poly, n)
-	copy(a, p0)
-	copy(b, p1)
-	for i := range b {
-		b[i] -= a[i]
-	}
+func newLine(l loop.Loop, param int) (line, error) {
+	pl := plane.NewLine(l, param)
+	a, b := pl.A, pl.B
+	n := len(a)
 	if !a.Finite() || !b.Finite() {
 		return line{}, errors.New("the characteristic polynomial has coefficients that are not finite numbers")
 	}
@@ -58,7 +51,7 @@ func (l line) at(dst poly.Poly, k float64) poly.Poly {
 // axis: a solution of one of the three D-partition equations.
 type candidate struct {
 	k     float64
-	kind  string
+	kind  stability.Kind
 	omega float64
 }
 
@@ -77,11 +70,11 @@ func (l line) candidates() []candidate {
 	n := len(l.b) - 1
 	// Real: p(0; k) = a0 + k·b0 = 0.
 	if l.b[0] != 0 {
-		cs = append(cs, candidate{k: -l.a[0] / l.b[0], kind: Real, omega: 0})
+		cs = append(cs, candidate{k: -l.a[0] / l.b[0], kind: stability.Real, omega: 0})
 	}
 	// Infinite: the leading coefficient a_n + k·b_n = 0.
 	if l.b[n] != 0 {
-		cs = append(cs, candidate{k: -l.a[n] / l.b[n], kind: Infinite, omega: math.NaN()})
+		cs = append(cs, candidate{k: -l.a[n] / l.b[n], kind: stability.Infinite, omega: math.NaN()})
 	}
 	cs = append(cs, l.complexCandidates()...)
 	for i := range cs {
@@ -149,11 +142,11 @@ func (l line) complexCandidates() []candidate {
 		w := math.Sqrt(u)
 		vr, vi := br.EvalReal(u), bi.EvalReal(u)
 		den := vr*vr + u*vi*vi
-		if den <= sq(routh.InputTol*absEval(l.b, w)) {
+		if den <= sq(coefficientTol*absEval(l.b, w)) {
 			continue // b(jω) = 0: no finite k puts a root at jω
 		}
 		k := -(ar.EvalReal(u)*vr + u*ai.EvalReal(u)*vi) / den
-		cs = append(cs, candidate{k: k, kind: Complex, omega: w})
+		cs = append(cs, candidate{k: k, kind: stability.Complex, omega: w})
 	}
 	return cs
 }
@@ -199,6 +192,11 @@ func absMul(x, y poly.Poly) poly.Poly {
 	return r
 }
 
+// coefficientTol is the relative size, against the terms that form it,
+// below which b(jω) counts as zero: a few hundred rounding errors of
+// forming the characteristic polynomial, with a wide margin.
+const coefficientTol = 1e-13
+
 // unit is the unit roundoff of float64, 2^-53.
 const unit = 0x1p-53
 
@@ -216,19 +214,3 @@ func absEval(p poly.Poly, w float64) float64 {
 }
 
 func sq(x float64) float64 { return x * x }
-
-// tester decides stability of polynomials of one length with the sign
-// array, reusing its buffers.
-type tester struct {
-	p    poly.Poly
-	work []float64
-}
-
-func newTester(n int) *tester {
-	return &tester{p: make(poly.Poly, n), work: make([]float64, routh.WorkLen(n))}
-}
-
-// stable reports whether p has every root in the open left half plane and
-// no degree drop: the fast sign-array count, with the full analysis for its
-// special cases.
-func (t *tester) stable(p poly.Poly) bool { return routh.Hurwitz(p, t.work) }

@@ -6,14 +6,15 @@ import (
 	"testing"
 
 	"gainscape/regions/family"
-	"gainscape/regions/plane"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // randomLoop returns a loop with a random plant (poles and zeros spread
 // over both half planes, magnitudes 0.2 to 5) under a random family with
 // random parameter values, and the index of a random parameter.
-func randomLoop(rng *rand.Rand) (plane.Loop, int) {
+func randomLoop(rng *rand.Rand) (loop.Loop, int) {
 	roots := func(n int) []complex128 {
 		var r []complex128
 		for len(r) < n {
@@ -44,7 +45,7 @@ func randomLoop(rng *rand.Rand) (plane.Loop, int) {
 	if f.Name() == "pid" && rng.IntN(2) == 0 {
 		v[3] = 0 // ideal derivative: the top coefficient vanishes for every value
 	}
-	return plane.Loop{PlantNum: num, PlantDen: den, Family: f, Values: v}, rng.IntN(len(v))
+	return loop.Loop{Plant: loop.Plant{Num: num, Den: den}, Family: f, Values: v}, rng.IntN(len(v))
 }
 
 // eigenStability is the independent reference: the closed loop at
@@ -53,7 +54,7 @@ func randomLoop(rng *rand.Rand) (plane.Loop, int) {
 // equals the generic degree. sure is false when the largest real part is
 // within 1e-9 of the root scale of zero, where the reference itself
 // cannot decide.
-func eigenStability(t *testing.T, loop plane.Loop, param, degree int, k float64) (stable, sure bool) {
+func eigenStability(t *testing.T, loop loop.Loop, param, degree int, k float64) (stable, sure bool) {
 	t.Helper()
 	p := loop.With(param, k, param, k).Characteristic().Trim(0)
 	if p.Degree() < degree {
@@ -76,7 +77,7 @@ func eigenStability(t *testing.T, loop plane.Loop, param, degree int, k float64)
 
 // genericDegree is the degree of the characteristic polynomial at two
 // arbitrary parameter values (the larger).
-func genericDegree(loop plane.Loop, param int) int {
+func genericDegree(loop loop.Loop, param int) int {
 	d := 0
 	for _, k := range []float64{0.318, -2.71} {
 		d = max(d, loop.With(param, k, param, k).Characteristic().Trim(0).Degree())
@@ -92,7 +93,7 @@ func genericDegree(loop plane.Loop, param int) int {
 func TestStableAgreesWithEigenvalues(t *testing.T) {
 	rng := rand.New(rand.NewPCG(11, 12))
 	var ends, samples int
-	kinds := map[string]int{}
+	kinds := map[stability.Kind]int{}
 	for trial := 0; trial < 3000; trial++ {
 		loop, param := randomLoop(rng)
 		w := math.Pow(10, 2*rng.Float64()-0.5)
@@ -117,11 +118,11 @@ func TestStableAgreesWithEigenvalues(t *testing.T) {
 			}
 			if st, sure := eigenStability(t, loop, param, deg, 0.5*(iv.Lo+iv.Hi)); !st && sure {
 				t.Fatalf("trial %d: middle of %+v unstable by eigenvalues; loop %v %v %s %v param %d",
-					trial, iv, loop.PlantNum, loop.PlantDen, loop.Family.Name(), loop.Values, param)
+					trial, iv, loop.Plant.Num, loop.Plant.Den, loop.Family.Name(), loop.Values, param)
 			}
 			for _, e := range []struct {
 				k    float64
-				kind string
+				kind stability.Kind
 			}{{iv.Lo - ref(iv.Lo), iv.LoKind}, {iv.Hi + ref(iv.Hi), iv.HiKind}} {
 				kinds[e.kind]++
 				if e.kind == Window || inside(e.k) {
@@ -129,7 +130,7 @@ func TestStableAgreesWithEigenvalues(t *testing.T) {
 				}
 				if st, sure := eigenStability(t, loop, param, deg, e.k); st && sure {
 					t.Fatalf("trial %d: %g just outside %+v stable by eigenvalues; loop %v %v %s %v param %d",
-						trial, e.k, iv, loop.PlantNum, loop.PlantDen, loop.Family.Name(), loop.Values, param)
+						trial, e.k, iv, loop.Plant.Num, loop.Plant.Den, loop.Family.Name(), loop.Values, param)
 				}
 				ends++
 			}
@@ -146,13 +147,13 @@ func TestStableAgreesWithEigenvalues(t *testing.T) {
 			}
 			if st != inside(k) {
 				t.Fatalf("trial %d: at %g eigenvalues say stable=%v, intervals %+v; loop %v %v %s %v param %d",
-					trial, k, st, got, loop.PlantNum, loop.PlantDen, loop.Family.Name(), loop.Values, param)
+					trial, k, st, got, loop.Plant.Num, loop.Plant.Den, loop.Family.Name(), loop.Values, param)
 			}
 			samples++
 		}
 	}
 	t.Logf("%d ends checked outside, %d sample points, end kinds %v", ends, samples, kinds)
-	if ends < 1000 || samples < 150000 || kinds[Real] == 0 || kinds[Complex] == 0 || kinds[Infinite] == 0 {
+	if ends < 1000 || samples < 150000 || kinds[stability.Real] == 0 || kinds[stability.Complex] == 0 || kinds[stability.Infinite] == 0 {
 		t.Fatalf("too few checks: %d ends, %d samples, kinds %v", ends, samples, kinds)
 	}
 }

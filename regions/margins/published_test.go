@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/routh"
 )
 
 // TestPublishedThirdOrderLoop checks the margins of KG(s) = 1/(s(s+1)²),
@@ -44,7 +45,7 @@ func TestPublishedThirdOrderLoop(t *testing.T) {
 		t.Errorf("hand-derived PM %.4g° is not the ≈22° of the published example", pm)
 	}
 	// The ultimate gain of the same plant is the gain margin: 2, at ω = 1.
-	ku, tu, ok := Ultimate(poly.Poly{1}, poly.FromDescending([]float64{1, 2, 1, 0}))
+	ku, tu, ok := Ultimate(poly.Poly{1}, poly.FromDescending([]float64{1, 2, 1, 0}), routh.Test{})
 	if !ok || math.Abs(ku-2) > 1e-10 || math.Abs(tu-2*math.Pi) > 1e-9 {
 		t.Errorf("Ultimate = %g, %g, %v; want 2, 2π", ku, tu, ok)
 	}

@@ -3,12 +3,14 @@ package margins
 import (
 	"math"
 	"testing"
+
+	"gainscape/regions/routh"
 )
 
 // Ku = 8, Tu = 2π/√3 (the plant 1/(s+1)³). ZN PID: Kc = 4.8, Ti = Tu/2,
 // Td = Tu/8, so Ki = 4.8·2/Tu and Kd = 4.8·Tu/8.
 func TestUltimateCycleRules(t *testing.T) {
-	ku, tu, ok := Ultimate(p(1), p(1, 3, 3, 1))
+	ku, tu, ok := Ultimate(p(1), p(1, 3, 3, 1), routh.Test{})
 	if !ok {
 		t.Fatal("no ultimate gain")
 	}

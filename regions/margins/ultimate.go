@@ -6,7 +6,7 @@ import (
 	"slices"
 
 	"gainscape/regions/poly"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // Ultimate returns the ultimate gain ku and ultimate period tu (seconds) of
@@ -29,7 +29,7 @@ import (
 // (k = −d_n/n_n when N and D have the same degree) split the positive k
 // axis too. Between consecutive candidate gains the number of unstable
 // poles is constant; each interval is tested once, at its midpoint, with
-// the Routh sign array (routh.Count, falling back to routh.Analyze). The
+// the stability test given. The
 // ultimate gain is the first oscillatory candidate with a stable interval
 // just below it and an unstable one just above it (a pair that only
 // touches the axis is not a loss of stability).
@@ -39,7 +39,7 @@ import (
 // is never stable for k > 0, plants for which stability is lost only
 // through s = 0 or through infinity (no sustained oscillation), or
 // coefficients that are not finite.
-func Ultimate(plantNum, plantDen poly.Poly) (ku, tu float64, ok bool) {
+func Ultimate(plantNum, plantDen poly.Poly, test stability.Test) (ku, tu float64, ok bool) {
 	num, den := plantNum.Clone().Trim(0), plantDen.Clone().Trim(0)
 	if !num.Finite() || !den.Finite() || num.Degree() < 0 || den.Degree() < 0 {
 		return 0, 0, false
@@ -112,7 +112,7 @@ func Ultimate(plantNum, plantDen poly.Poly) (ku, tu float64, ok bool) {
 		}
 		merged = append(merged, c)
 	}
-	st := stabilityTester{num: num, den: den}
+	st := stabilityTester{num: num, den: den, test: test}
 	prev := 0.0
 	for i, c := range merged {
 		below := 0.5 * (prev + c.k)
@@ -149,18 +149,19 @@ func splitJW(p poly.Poly) (re, im poly.Poly) {
 	return re, im
 }
 
-// stabilityTester decides whether D + k·N is Hurwitz.
+// stabilityTester decides whether D + k·N is stable.
 type stabilityTester struct {
 	num, den poly.Poly
+	test     stability.Test
 	buf      poly.Poly
-	work     []float64
+	counter  stability.Counter
 }
 
 func (s *stabilityTester) stable(k float64) bool {
 	n := max(len(s.num), len(s.den))
 	if len(s.buf) != n {
 		s.buf = make(poly.Poly, n)
-		s.work = make([]float64, routh.WorkLen(n))
+		s.counter = s.test.NewCounter(n)
 	}
 	clear(s.buf)
 	copy(s.buf, s.den)
@@ -168,5 +169,5 @@ func (s *stabilityTester) stable(k float64) bool {
 		s.buf[i] += k * v
 	}
 	c := s.buf.Trim(0)
-	return len(c) == n && routh.Hurwitz(c, s.work)
+	return len(c) == n && s.counter.Count(stability.Function{P: c}).Stable()
 }

@@ -37,7 +37,7 @@ func TestUltimateHandDerived(t *testing.T) {
 		{"2/(s+1)^3 (gain in the plant)", p(2), p(1, 3, 3, 1), 4, math.Sqrt(3)},
 	}
 	for _, c := range cases {
-		ku, tu, ok := Ultimate(c.num, c.den)
+		ku, tu, ok := Ultimate(c.num, c.den, routh.Test{})
 		if !ok {
 			t.Errorf("%s: no ultimate gain", c.name)
 			continue
@@ -66,7 +66,7 @@ func TestUltimateHandDerived(t *testing.T) {
 		{"NaN", p(math.NaN()), p(1, 1)},
 		{"zero numerator", poly.Poly{0}, p(1, 1, 1, 1)},
 	} {
-		if ku, tu, ok := Ultimate(c.num, c.den); ok {
+		if ku, tu, ok := Ultimate(c.num, c.den, routh.Test{}); ok {
 			t.Errorf("%s: Ku = %g, Tu = %g, want none", c.name, ku, tu)
 		}
 	}
@@ -105,7 +105,7 @@ func TestUltimateAgreesWithScan(t *testing.T) {
 			num = poly.FromRoots([]complex128{complex(-math.Exp(2*rng.Float64()-1), 0)})
 		}
 		num = num.Scaled(math.Exp(2*rng.Float64() - 1))
-		ku, tu, ok := Ultimate(num, den)
+		ku, tu, ok := Ultimate(num, den, routh.Test{})
 
 		// Brute force.
 		const steps = 4000

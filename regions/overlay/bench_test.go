@@ -5,10 +5,10 @@ import (
 	"math"
 	"testing"
 
-	"gainscape/regions/grid"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
 	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // Per-node costs, all on the stable nodes of the same two maps, so that the
@@ -60,12 +60,13 @@ func benchNodes(b *testing.B, setup func(testing.TB) plane.Setup, f func(p poly.
 }
 
 func benchCount(b *testing.B, setup func(testing.TB) plane.Setup) {
-	c := grid.NewCounter(setup(b).Pencil().Len())
-	benchNodes(b, setup, func(p poly.Poly) { c.Count(p) })
+	s := setup(b)
+	c := s.NewCounter()
+	benchNodes(b, setup, func(p poly.Poly) { c.Count(stability.Function{P: p}) })
 }
 
 func benchShift(b *testing.B, setup func(testing.TB) plane.Setup) {
-	t := newShiftTest(setup(b).Pencil().Len())
+	t := newShiftTest(setup(b).Char.Len())
 	benchNodes(b, setup, func(p poly.Poly) { t.decay(p) })
 }
 
@@ -96,13 +97,13 @@ func countDecay(t *shiftTest, work []float64, p poly.Poly) float64 {
 }
 
 func benchShiftCount(b *testing.B, setup func(testing.TB) plane.Setup) {
-	n := setup(b).Pencil().Len()
+	n := setup(b).Char.Len()
 	t, work := newShiftTest(n), make([]float64, routh.WorkLen(n))
 	benchNodes(b, setup, func(p poly.Poly) { countDecay(t, work, p) })
 }
 
 func benchEigen(b *testing.B, setup func(testing.TB) plane.Setup) {
-	f := newPoleFinder(setup(b).Pencil().Len())
+	f := newPoleFinder(setup(b).Char.Len())
 	benchNodes(b, setup, func(p poly.Poly) { f.decayAndDamping(p) })
 }
 

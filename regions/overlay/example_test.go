@@ -7,6 +7,7 @@ import (
 	"gainscape/regions/boundary"
 	"gainscape/regions/family"
 	"gainscape/regions/grid"
+	"gainscape/regions/loop"
 	"gainscape/regions/overlay"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
@@ -19,7 +20,7 @@ import (
 // themselves, kp = −1 is 300% of kp away and ki = 0 is 100% of ki away.
 func ExampleFragility() {
 	f, _ := family.Lookup("pi")
-	loop := plane.Loop{PlantNum: poly.Poly{1}, PlantDen: poly.Poly{1, 1}, Family: f, Values: []float64{0, 0}}
+	loop := loop.Loop{Plant: loop.Plant{Num: poly.Poly{1}, Den: poly.Poly{1, 1}}, Family: f, Values: []float64{0, 0}}
 	s, err := plane.NewSetup(loop,
 		plane.Axis{Param: "kp", Min: -2.03, Max: 1.97, N: 41},
 		plane.Axis{Param: "ki", Min: -1.03, Max: 1.47, N: 41})

@@ -6,7 +6,7 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/plane"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // Nearest is the boundary point nearest a design point in one metric.
@@ -16,9 +16,9 @@ type Nearest struct {
 	Distance float64
 	// X, Y is the boundary point, refined with the stability test.
 	X, Y float64
-	// Kind and Omega say how roots cross there (routh.ClassifyCrossing at
-	// the refined point): Omega is 0 for Real and NaN for Infinite.
-	Kind  boundary.Kind
+	// Kind and Omega say how roots cross there (the setup's stability
+	// test at the refined point): Omega is 0 for Real and NaN for Infinite.
+	Kind  stability.Kind
 	Omega float64
 	// Curve is the index of the curve whose polyline came nearest.
 	Curve int
@@ -51,7 +51,7 @@ type Clearance struct {
 // roots), and the ray's direction is then adjusted by golden-section
 // search (J. Kiefer, "Sequential minimax search for a maximum", Proc. AMS
 // 4(3), 1953) to minimise the distance along it. The kind of crossing and
-// its frequency are read from the sign array at the refined point.
+// its frequency are read from the stability test at the refined point.
 //
 // It returns an error for a design point that is not finite or when the
 // curves hold no point.
@@ -202,19 +202,11 @@ func (f frame) ray(theta, d float64) float64 {
 	return lo
 }
 
-// classify fills the kind and frequency of n from the sign array at its
-// point.
+// classify fills the kind and frequency of n from the stability test at
+// its point.
 func (f frame) classify(n Nearest) Nearest {
-	cr := routh.ClassifyCrossing(f.pr.poly(n.X, n.Y))
-	n.Omega = cr.Omega
-	switch cr.Vanishing {
-	case "constant":
-		n.Kind = boundary.Real
-	case "leading":
-		n.Kind = boundary.Infinite
-	default:
-		n.Kind = boundary.Complex
-	}
+	cr := f.pr.setup.Test().Classify(f.pr.function(n.X, n.Y))
+	n.Kind, n.Omega = cr.Kind, cr.Omega
 	return n
 }
 

@@ -7,6 +7,7 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/plane"
+	"gainscape/regions/stability"
 )
 
 // fragilityTol is the agreement required with the hand-derived distances
@@ -59,12 +60,12 @@ func TestFragilityHandDerived(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	coarse := boundary.Curve{Kind: boundary.Complex}
+	coarse := boundary.Curve{Kind: stability.Complex}
 	for k := 0; k <= 8; k++ {
 		kp := 0.75 * float64(k)
 		coarse.Points = append(coarse.Points, boundary.Point{X: kp, Y: parabola(kp), Omega: math.Sqrt(kp / 3)})
 	}
-	line := boundary.Curve{Kind: boundary.Real, Points: []boundary.Point{{X: 0, Y: 0}, {X: 6, Y: 0}}}
+	line := boundary.Curve{Kind: stability.Real, Points: []boundary.Point{{X: 0, Y: 0}, {X: 6, Y: 0}}}
 
 	const x0, y0 = 4, 0.7
 	// Absolute: with u = kp − 3, f = 1 − u²/9 and the distance² is
@@ -105,7 +106,7 @@ func TestFragilityHandDerived(t *testing.T) {
 					math.Abs(n.Y-parabola(w.kp)) > fragilityTol {
 					t.Errorf("%s: %+v; want distance %.9g at (%.9g, %.9g)", w.what, n, w.dist, w.kp, parabola(w.kp))
 				}
-				if n.Kind != boundary.Complex || math.Abs(n.Omega-math.Sqrt(w.kp/3)) > fragilityTol {
+				if n.Kind != stability.Complex || math.Abs(n.Omega-math.Sqrt(w.kp/3)) > fragilityTol {
 					t.Errorf("%s: kind %s, ω %.9g; want complex, %.9g", w.what, n.Kind, n.Omega, math.Sqrt(w.kp/3))
 				}
 			}
@@ -137,10 +138,10 @@ func TestFragilityZeroValue(t *testing.T) {
 		name           string
 		got            Nearest
 		dist, x, y, om float64
-		kind           boundary.Kind
+		kind           stability.Kind
 	}{
-		{"absolute", c.Absolute, 0.5, 0, 0, 0, boundary.Real},
-		{"relative", c.Relative, 0.25, -1, 0.5, math.Sqrt(0.5), boundary.Complex},
+		{"absolute", c.Absolute, 0.5, 0, 0, 0, stability.Real},
+		{"relative", c.Relative, 0.25, -1, 0.5, math.Sqrt(0.5), stability.Complex},
 	}
 	for _, tc := range tests {
 		n := tc.got
@@ -157,14 +158,14 @@ func TestFragilityZeroValue(t *testing.T) {
 // TestFragilityErrors checks the user errors.
 func TestFragilityErrors(t *testing.T) {
 	s := thirdOrderPI(t)
-	some := []boundary.Curve{{Kind: boundary.Real, Points: []boundary.Point{{X: 0, Y: 0}, {X: 6, Y: 0}}}}
+	some := []boundary.Curve{{Kind: stability.Real, Points: []boundary.Point{{X: 0, Y: 0}, {X: 6, Y: 0}}}}
 	tests := []struct {
 		name   string
 		x, y   float64
 		curves []boundary.Curve
 	}{
 		{"no curves", 4, 0.7, nil},
-		{"curves without points", 4, 0.7, []boundary.Curve{{Kind: boundary.Real}}},
+		{"curves without points", 4, 0.7, []boundary.Curve{{Kind: stability.Real}}},
 		{"point not a number", math.NaN(), 0.7, some},
 		{"point infinite", 4, math.Inf(-1), some},
 	}

@@ -8,6 +8,7 @@ import (
 
 	"gainscape/regions/family"
 	"gainscape/regions/grid"
+	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
 )
@@ -21,7 +22,7 @@ func setupOf(t testing.TB, num, den []float64, fam string, values []float64, x, 
 	if err != nil {
 		t.Fatal(err)
 	}
-	loop := plane.Loop{PlantNum: poly.FromDescending(num), PlantDen: poly.FromDescending(den), Family: f, Values: values}
+	loop := loop.Loop{Plant: loop.Plant{Num: poly.FromDescending(num), Den: poly.FromDescending(den)}, Family: f, Values: values}
 	s, err := plane.NewSetup(loop, x, y)
 	if err != nil {
 		t.Fatal(err)
@@ -43,7 +44,7 @@ func mapOf(t testing.TB, s plane.Setup) *grid.Map {
 // of s, in row-major order.
 func stablePolys(t testing.TB, s plane.Setup) []poly.Poly {
 	m := mapOf(t, s)
-	pc := s.Pencil()
+	pc := s.Char
 	var ps []poly.Poly
 	for j := 0; j < s.Y.N; j++ {
 		for i := 0; i < s.X.N; i++ {

@@ -13,7 +13,7 @@ import (
 	"fmt"
 	"math"
 
-	"gainscape/regions/family"
+	"gainscape/internal/pool"
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
@@ -85,10 +85,7 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 	if opt.Sensitivity != nil {
 		g.Ms = nanSlice(n)
 	}
-	pencil := s.Pencil()
-	open := newOpenLoop(s)
-	newScratch := func() *evaluator { return newEvaluator(pencil, open) }
-	err := grid.EachRow(ctx, s.Y.N, opt.Workers, opt.Progress, newScratch, func(e *evaluator, j int) {
+	err := pool.Each(ctx, s.Y.N, opt.Workers, opt.Progress, func() *evaluator { return newEvaluator(s) }, func(e *evaluator, j int) {
 		y := s.Y.At(j)
 		for i := 0; i < s.X.N; i++ {
 			k := j*s.X.N + i
@@ -96,14 +93,14 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 				continue
 			}
 			x := s.X.At(i)
-			p := pencil.EvalInto(e.p, x, y)
+			p := s.Function(e.buf, x, y).P
 			if opt.Damping {
 				g.Decay[k], g.Damping[k] = e.poles.decayAndDamping(p)
 			} else {
 				g.Decay[k] = e.shift.decay(p)
 			}
 			if opt.Sensitivity != nil {
-				g.Ms[k] = opt.Sensitivity(e.openLoop(x, y))
+				g.Ms[k] = opt.Sensitivity(s.OpenLoop(e.buf, x, y))
 			}
 		}
 	})
@@ -129,72 +126,14 @@ func nanSlice(n int) []float64 {
 	return v
 }
 
-// openLoop holds the numerator Nc·N and denominator Dc·D of the open loop
-// as exact functions of the two axis values. Each is affine in each
-// parameter alone (the family.Family contract), so the same four-corner
-// construction as plane.Setup.Pencil applies.
-type openLoop struct {
-	num, den plane.Pencil
-}
-
-// OpenLoopLen returns the largest number of coefficients of the open-loop
-// numerator or denominator that Compute and the searches hand to a
-// Sensitivity evaluator for s, for sizing an evaluator's buffers.
-func OpenLoopLen(s plane.Setup) int {
-	o := newOpenLoop(s)
-	return max(o.num.Len(), o.den.Len())
-}
-
-func newOpenLoop(s plane.Setup) openLoop {
-	at := func(x, y float64) (poly.Poly, poly.Poly) {
-		l := s.With(s.XIndex, x, s.YIndex, y)
-		cn, cd := family.Controller(l.Family, l.Values)
-		return poly.Mul(cn, l.PlantNum), poly.Mul(cd, l.PlantDen)
-	}
-	n00, d00 := at(0, 0)
-	n10, d10 := at(1, 0)
-	n01, d01 := at(0, 1)
-	n11, d11 := at(1, 1)
-	return openLoop{num: pencilOf(n00, n10, n01, n11), den: pencilOf(d00, d10, d01, d11)}
-}
-
-// pencilOf returns A + x·B + y·C + x·y·E from its values at the corners
-// (0,0), (1,0), (0,1), (1,1).
-func pencilOf(p00, p10, p01, p11 poly.Poly) plane.Pencil {
-	n := max(len(p00), len(p10), len(p01), len(p11))
-	pad := func(p poly.Poly) poly.Poly { q := make(poly.Poly, n); copy(q, p); return q }
-	p00, p10, p01, p11 = pad(p00), pad(p10), pad(p01), pad(p11)
-	pc := plane.Pencil{A: p00, B: make(poly.Poly, n), C: make(poly.Poly, n), E: make(poly.Poly, n)}
-	for k := 0; k < n; k++ {
-		pc.B[k] = p10[k] - p00[k]
-		pc.C[k] = p01[k] - p00[k]
-		pc.E[k] = p11[k] - p10[k] - p01[k] + p00[k]
-	}
-	return pc
-}
-
 // evaluator is one worker's scratch space.
 type evaluator struct {
-	p, num, den poly.Poly
-	poles       *poleFinder
-	shift       *shiftTest
-	open        openLoop
+	buf   *plane.Scratch
+	poles *poleFinder
+	shift *shiftTest
 }
 
-func newEvaluator(pencil plane.Pencil, open openLoop) *evaluator {
-	return &evaluator{
-		p:     make(poly.Poly, pencil.Len()),
-		num:   make(poly.Poly, open.num.Len()),
-		den:   make(poly.Poly, open.den.Len()),
-		poles: newPoleFinder(pencil.Len()),
-		shift: newShiftTest(pencil.Len()),
-		open:  open,
-	}
-}
-
-// openLoop returns the open-loop numerator and denominator at (x, y),
-// without leading coefficients that are exactly zero (such as the s²
-// coefficient of an ideal PID's denominator).
-func (e *evaluator) openLoop(x, y float64) (num, den poly.Poly) {
-	return e.open.num.EvalInto(e.num, x, y).Trim(0), e.open.den.EvalInto(e.den, x, y).Trim(0)
+func newEvaluator(s plane.Setup) *evaluator {
+	n := s.Char.Len()
+	return &evaluator{buf: s.NewScratch(), poles: newPoleFinder(n), shift: newShiftTest(n)}
 }

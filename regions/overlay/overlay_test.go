@@ -8,6 +8,7 @@ import (
 
 	"gainscape/regions/family"
 	"gainscape/regions/grid"
+	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
 )
@@ -41,7 +42,7 @@ func randomSetup(t testing.TB, rng *rand.Rand) plane.Setup {
 	names := []string{"kp", "ki", "kd", "tau"}
 	xi := rng.IntN(3)
 	yi := (xi + 1 + rng.IntN(2)) % 3
-	loop := plane.Loop{PlantNum: poly.Poly{0.5 + 3*rng.Float64()}, PlantDen: poly.FromRoots(roots), Family: f, Values: values}
+	loop := loop.Loop{Plant: loop.Plant{Num: poly.Poly{0.5 + 3*rng.Float64()}, Den: poly.FromRoots(roots)}, Family: f, Values: values}
 	s, err := plane.NewSetup(loop,
 		plane.Axis{Param: names[xi], Min: -1, Max: 1 + 9*rng.Float64(), N: 23},
 		plane.Axis{Param: names[yi], Min: -0.5, Max: 1 + 4*rng.Float64(), N: 19})
@@ -68,7 +69,7 @@ func TestDecayAgreesWithEigenvalues(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		pc := s.Pencil()
+		pc := s.Char
 		for j := 0; j < s.Y.N; j++ {
 			for i := 0; i < s.X.N; i++ {
 				k := shifted.At(i, j)
@@ -219,7 +220,7 @@ func TestComputeMs(t *testing.T) {
 			}
 			l := s.With(s.XIndex, s.X.At(i), s.YIndex, s.Y.At(j))
 			cn, cd := family.Controller(l.Family, l.Values)
-			want := sweepMs(poly.Mul(cn, l.PlantNum), poly.Mul(cd, l.PlantDen))
+			want := sweepMs(poly.Mul(cn, l.Plant.Num), poly.Mul(cd, l.Plant.Den))
 			if got := g.Ms[g.At(i, j)]; math.Abs(got-want) > 1e-9*want {
 				t.Fatalf("node (%d, %d): Ms %.12g; direct %.12g", i, j, got, want)
 			}
@@ -274,11 +275,12 @@ func TestComputePanicsOnForeignMap(t *testing.T) {
 	Compute(context.Background(), s, m, Options{})
 }
 
-// TestOpenLoopLen checks the size reported for evaluator buffers on a
-// filtered PID and a third-order plant: Dc·D = (tau·s² + s)(s+1)³ has six
+// TestOpenLoopLen checks the size of the open-loop pencils on a filtered
+// PID and a third-order plant: Dc·D = (tau·s² + s)(s+1)³ has six
 // coefficients, Nc·N three (derived by hand).
 func TestOpenLoopLen(t *testing.T) {
-	if got := OpenLoopLen(smallSetup(t)); got != 6 {
-		t.Fatalf("OpenLoopLen = %d; want 6", got)
+	s := smallSetup(t)
+	if got := max(s.OpenNum.Len(), s.OpenDen.Len()); got != 6 {
+		t.Fatalf("open-loop length %d; want 6", got)
 	}
 }

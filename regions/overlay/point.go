@@ -3,10 +3,8 @@ package overlay
 import (
 	"math"
 
-	"gainscape/regions/grid"
 	"gainscape/regions/plane"
-	"gainscape/regions/poly"
-	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // prober evaluates the loop of a setup at arbitrary points of the plane,
@@ -14,41 +12,30 @@ import (
 // concurrent use.
 type prober struct {
 	setup   plane.Setup
-	pencil  plane.Pencil
 	e       *evaluator
-	counter *grid.Counter
-	work    []float64
+	counter stability.Counter
 }
 
 func newProber(s plane.Setup) *prober {
-	pc := s.Pencil()
-	return &prober{
-		setup:   s,
-		pencil:  pc,
-		e:       newEvaluator(pc, newOpenLoop(s)),
-		counter: grid.NewCounter(pc.Len()),
-		work:    make([]float64, routh.WorkLen(pc.Len())),
-	}
+	return &prober{setup: s, e: newEvaluator(s), counter: s.NewCounter()}
 }
 
-// poly returns the characteristic polynomial at (x, y) in scratch space.
-func (pr *prober) poly(x, y float64) poly.Poly { return pr.pencil.EvalInto(pr.e.p, x, y) }
+// function returns the characteristic function at (x, y) in scratch space.
+func (pr *prober) function(x, y float64) stability.Function { return pr.setup.Function(pr.e.buf, x, y) }
 
 // count returns the number of right-half-plane roots at (x, y), as the
-// stability map counts them (grid.Counter).
-func (pr *prober) count(x, y float64) int { return pr.counter.Count(pr.poly(x, y)) }
+// stability map counts them.
+func (pr *prober) count(x, y float64) int { return pr.counter.Count(pr.function(x, y)).Unstable }
 
 // stable reports whether the loop at (x, y) has every root in the open
 // left half plane and no drop of degree.
-func (pr *prober) stable(x, y float64) bool {
-	return routh.Hurwitz(pr.poly(x, y), pr.work)
-}
+func (pr *prober) stable(x, y float64) bool { return pr.counter.Count(pr.function(x, y)).Stable() }
 
 // decayAndDamping returns the decay rate and smallest damping ratio at
 // (x, y) from the eigenvalues; the decay rate is negative where the loop
 // is unstable, which lets the searches step across the boundary and back.
 func (pr *prober) decayAndDamping(x, y float64) (float64, float64) {
-	return pr.e.poles.decayAndDamping(pr.poly(x, y))
+	return pr.e.poles.decayAndDamping(pr.function(x, y).P)
 }
 
 // ms returns the sensitivity evaluator's value at (x, y), NaN without one.
@@ -56,7 +43,7 @@ func (pr *prober) ms(f Sensitivity, x, y float64) float64 {
 	if f == nil {
 		return math.NaN()
 	}
-	return f(pr.e.openLoop(x, y))
+	return f(pr.setup.OpenLoop(pr.e.buf, x, y))
 }
 
 // Optimum is a design point chosen by BestDecay or BestIntegral, with the

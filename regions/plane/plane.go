@@ -1,14 +1,16 @@
 // Package plane sets up a two-parameter view of a loop: which controller
 // parameters are the axes, the values of the others, and the closed-loop
-// characteristic polynomial written as an exact function of the two axis
-// values.
+// characteristic function and open loop written as exact functions of the
+// two axis values, built once for a whole map.
 package plane
 
 import (
 	"fmt"
 
 	"gainscape/regions/family"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // Axis is one parameter swept over [Min, Max] in N equally spaced nodes.
@@ -27,40 +29,25 @@ func (a Axis) At(i int) float64 {
 // Span returns Max − Min.
 func (a Axis) Span() float64 { return a.Max - a.Min }
 
-// Loop is a plant N/D under a controller family with parameter values.
-type Loop struct {
-	PlantNum, PlantDen poly.Poly
-	Family             family.Family
-	Values             []float64 // one per Family.Params(), in order
-}
-
-// Characteristic returns the closed-loop characteristic polynomial at the
-// loop's parameter values, without leading coefficients that are exactly
-// zero: a structure that lacks a term (an ideal derivative, tau = 0) has a
-// lower degree, not a root at infinity.
-func (l Loop) Characteristic() poly.Poly {
-	cn, cd := family.Controller(l.Family, l.Values)
-	return family.Characteristic(l.PlantNum, l.PlantDen, cn, cd).Trim(0)
-}
-
-// With returns a copy of l whose parameters xi and yi are set to x and y.
-func (l Loop) With(xi int, x float64, yi int, y float64) Loop {
-	v := append([]float64(nil), l.Values...)
-	v[xi], v[yi] = x, y
-	l.Values = v
-	return l
-}
-
-// Setup is a loop viewed in the plane of two of its controller parameters.
+// Setup is a loop viewed in the plane of two of its controller
+// parameters, with its characteristic function and open loop as exact
+// functions of the two axis values.
 type Setup struct {
-	Loop
+	loop.Loop
 	X, Y           Axis
 	XIndex, YIndex int // positions of X.Param and Y.Param in Family.Params()
+	// Char is the characteristic polynomial Dc·D + Nc·N over the plane.
+	Char Pencil
+	// OpenNum and OpenDen are the open-loop numerator Nc·N and
+	// denominator Dc·D over the plane.
+	OpenNum, OpenDen Pencil
+	test             stability.Test
 }
 
-// NewSetup checks that the axis parameters exist and differ, and returns the
-// setup. values gives every parameter's value; those of the axes are ignored.
-func NewSetup(l Loop, x, y Axis) (Setup, error) {
+// NewSetup checks that the axis parameters exist and differ, and returns
+// the setup with its pencils built. l gives every parameter's value; those
+// of the axes are ignored.
+func NewSetup(l loop.Loop, x, y Axis) (Setup, error) {
 	xi, err := family.Index(l.Family, x.Param)
 	if err != nil {
 		return Setup{}, err
@@ -72,26 +59,66 @@ func NewSetup(l Loop, x, y Axis) (Setup, error) {
 	if xi == yi {
 		return Setup{}, fmt.Errorf("both axes sweep %q; choose two different parameters", x.Param)
 	}
-	if len(l.Values) != len(l.Family.Params()) {
-		return Setup{}, fmt.Errorf("%d parameter values for controller %q with %d parameters", len(l.Values), l.Family.Name(), len(l.Family.Params()))
+	if err := l.Check(); err != nil {
+		return Setup{}, err
 	}
-	return Setup{Loop: l, X: x, Y: y, XIndex: xi, YIndex: yi}, nil
+	s := Setup{Loop: l, X: x, Y: y, XIndex: xi, YIndex: yi, test: l.Test()}
+	s.Char = build(l, xi, yi, func(l loop.Loop) poly.Poly { return l.Characteristic() })
+	s.OpenNum = build(l, xi, yi, func(l loop.Loop) poly.Poly { n, _ := l.Open(); return n })
+	s.OpenDen = build(l, xi, yi, func(l loop.Loop) poly.Poly { _, d := l.Open(); return d })
+	return s, nil
 }
 
-// Pencil is the characteristic polynomial as an exact function of the two
-// axis values: p(s; x, y) = A(s) + x·B(s) + y·C(s) + x·y·E(s).
-// All four share one length, the largest degree plus one.
+// Test returns the stability test of the setup's loop.
+func (s Setup) Test() stability.Test { return s.test }
+
+// NewCounter returns a stability counter sized for the setup, for one
+// goroutine.
+func (s Setup) NewCounter() stability.Counter { return s.test.NewCounter(s.Char.Len()) }
+
+// Scratch holds one goroutine's coefficient buffers for evaluating a setup
+// at points of its plane.
+type Scratch struct {
+	p, num, den poly.Poly
+}
+
+// NewScratch returns buffers sized for s.
+func (s Setup) NewScratch() *Scratch {
+	return &Scratch{p: make(poly.Poly, s.Char.Len()), num: make(poly.Poly, s.OpenNum.Len()), den: make(poly.Poly, s.OpenDen.Len())}
+}
+
+// Function returns the characteristic function at (x, y) in sc's
+// buffers, valid until sc is used again. It does not allocate.
+func (s Setup) Function(sc *Scratch, x, y float64) stability.Function {
+	return stability.Function{P: s.Char.EvalInto(sc.p, x, y)}
+}
+
+// OpenLoop returns the open-loop numerator and denominator at (x, y) in
+// sc's buffers, without leading coefficients that are exactly zero (such
+// as the s² coefficient of an ideal PID's denominator). It does not
+// allocate.
+func (s Setup) OpenLoop(sc *Scratch, x, y float64) (num, den poly.Poly) {
+	return s.OpenNum.EvalInto(sc.num, x, y).Trim(0), s.OpenDen.EvalInto(sc.den, x, y).Trim(0)
+}
+
+// At returns the loop at (x, y) of the plane.
+func (s Setup) At(x, y float64) loop.Loop { return s.With(s.XIndex, x, s.YIndex, y) }
+
+// Pencil is a polynomial as an exact function of the two axis values:
+// p(s; x, y) = A(s) + x·B(s) + y·C(s) + x·y·E(s). All four share one
+// length.
 type Pencil struct {
 	A, B, C, E poly.Poly
 }
 
-// Pencil returns the characteristic polynomial of the setup as a Pencil.
-// Because every family's characteristic polynomial is affine in each
-// parameter alone (the family.Family contract), evaluating it at the four
-// corners (0,0), (1,0), (0,1), (1,1) determines A, B, C and E exactly up
-// to rounding.
-func (s Setup) Pencil() Pencil {
-	at := func(x, y float64) poly.Poly { return s.With(s.XIndex, x, s.YIndex, y).Characteristic() }
+// build writes quantity(l) as a Pencil over parameters xi and yi.
+// Because every coefficient of a controller is affine in each parameter
+// alone (the family.Form contract), so are the characteristic polynomial
+// and the open loop, and their values at the four corners (0,0), (1,0),
+// (0,1), (1,1) determine A, B, C and E. With xi = yi the result is a line
+// A + y·C along one parameter.
+func build(l loop.Loop, xi, yi int, quantity func(loop.Loop) poly.Poly) Pencil {
+	at := func(x, y float64) poly.Poly { return quantity(l.With(xi, x, yi, y)) }
 	p00, p10, p01, p11 := at(0, 0), at(1, 0), at(0, 1), at(1, 1)
 	n := max(len(p00), len(p10), len(p01), len(p11))
 	pad := func(p poly.Poly) poly.Poly { q := make(poly.Poly, n); copy(q, p); return q }
@@ -105,11 +132,24 @@ func (s Setup) Pencil() Pencil {
 	return pc
 }
 
+// Line is the characteristic polynomial along one parameter k with every
+// other parameter fixed: p(s; k) = A(s) + k·B(s), A and B of one length.
+type Line struct {
+	A, B poly.Poly
+}
+
+// NewLine returns the characteristic polynomial of l along parameter
+// param, built as the setups' pencils are.
+func NewLine(l loop.Loop, param int) Line {
+	pc := build(l, param, param, func(l loop.Loop) poly.Poly { return l.Characteristic() })
+	return Line{A: pc.A, B: pc.C}
+}
+
 // Len returns the number of coefficients of the pencil's polynomials.
 func (p Pencil) Len() int { return len(p.A) }
 
-// EvalInto writes the characteristic polynomial at (x, y) into dst, which
-// must have length p.Len(), and returns it. It does not allocate.
+// EvalInto writes the polynomial at (x, y) into dst, which must have
+// length p.Len(), and returns it. It does not allocate.
 func (p Pencil) EvalInto(dst poly.Poly, x, y float64) poly.Poly {
 	xy := x * y
 	for k := range dst {
@@ -118,7 +158,7 @@ func (p Pencil) EvalInto(dst poly.Poly, x, y float64) poly.Poly {
 	return dst
 }
 
-// Eval returns the characteristic polynomial at (x, y).
+// Eval returns the polynomial at (x, y).
 func (p Pencil) Eval(x, y float64) poly.Poly {
 	return p.EvalInto(make(poly.Poly, p.Len()), x, y)
 }

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"gainscape/regions/family"
+	"gainscape/regions/loop"
 	"gainscape/regions/poly"
 )
 
@@ -30,12 +31,12 @@ func TestPencilIsExactForEveryFamily(t *testing.T) {
 				for i := range vals {
 					vals[i] = rng.Float64()*4 - 1
 				}
-				l := Loop{PlantNum: num, PlantDen: den, Family: f, Values: vals}
+				l := loop.Loop{Plant: loop.Plant{Num: num, Den: den}, Family: f, Values: vals}
 				s, err := NewSetup(l, Axis{Param: f.Params()[xi].Name, Min: 0, Max: 1, N: 2}, Axis{Param: f.Params()[yi].Name, Min: 0, Max: 1, N: 2})
 				if err != nil {
 					t.Fatal(err)
 				}
-				pc := s.Pencil()
+				pc := s.Char
 				for trial := 0; trial < 20; trial++ {
 					x, y := rng.Float64()*20-10, rng.Float64()*20-10
 					cn, cd := family.Controller(f, s.With(xi, x, yi, y).Values)
@@ -57,7 +58,7 @@ func TestPencilIsExactForEveryFamily(t *testing.T) {
 }
 
 func TestNewSetupErrors(t *testing.T) {
-	l := Loop{PlantNum: poly.Poly{1}, PlantDen: poly.Poly{1, 1}, Family: family.ProportionalIntegral{}, Values: []float64{1, 0}}
+	l := loop.Loop{Plant: loop.Plant{Num: poly.Poly{1}, Den: poly.Poly{1, 1}}, Family: family.ProportionalIntegral{}, Values: []float64{1, 0}}
 	if _, err := NewSetup(l, Axis{Param: "kp"}, Axis{Param: "kp"}); err == nil {
 		t.Error("same axis twice accepted")
 	}
@@ -71,7 +72,7 @@ func TestNewSetupErrors(t *testing.T) {
 // Derived by hand: 1/(s+1) under kp + ki/s + kd·s gives
 // s(s+1) + kd·s² + kp·s + ki = (1+kd)s² + (1+kp)s + ki.
 func TestCharacteristicDropsStructuralZeros(t *testing.T) {
-	l := Loop{PlantNum: poly.Poly{1}, PlantDen: poly.Poly{1, 1}, Family: family.PID{}, Values: []float64{2, 3, 0.5, 0}}
+	l := loop.Loop{Plant: loop.Plant{Num: poly.Poly{1}, Den: poly.Poly{1, 1}}, Family: family.PID{}, Values: []float64{2, 3, 0.5, 0}}
 	got := l.Characteristic()
 	want := poly.Poly{3, 3, 1.5}
 	if len(got) != len(want) {

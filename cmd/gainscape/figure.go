@@ -1,0 +1,63 @@
+package main
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"gonum.org/v1/plot/vg"
+
+	"gainscape/regions/export"
+	"gainscape/regions/scenario"
+	"gainscape/regions/study"
+	"gainscape/render"
+)
+
+// figureOf assembles what the image shows from the computed map.
+func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) render.Figure {
+	title := sc.Output.Title
+	if title == "" {
+		title = fmt.Sprintf("G(s) = %s under %s", res.Plant, strings.ToUpper(res.Controller))
+	}
+	note := res.Formula
+	if fixed := study.ValuesText(res.Fixed); fixed != "" {
+		note += "; fixed: " + fixed
+	}
+	notes := []string{note}
+	if demoLabel != "" {
+		notes = append(notes, demoLabel)
+	}
+	fig := render.Figure{Map: res.Map, Curves: res.Curves, Title: title, Notes: notes,
+		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter}
+	ov := res.Overlays
+	if ov == nil {
+		return fig
+	}
+	if ov.Decay != nil && sc.Overlays.Decay {
+		fig.Shade = &render.Field{XAxis: ov.XAxis, YAxis: ov.YAxis, Values: ov.Decay.Values, Name: "decay rate σ (1/s)"}
+	}
+	for _, c := range []struct {
+		layer *study.Layer
+		name  string
+	}{{ov.Decay, "σ"}, {ov.Damping, "ζ"}, {ov.Ms, "Ms"}} {
+		if c.layer != nil && len(c.layer.Levels) > 0 {
+			fig.Contours = append(fig.Contours, render.ContourSet{Levels: c.layer.Levels, Lines: c.layer.Lines, Name: c.name})
+		}
+	}
+	for _, p := range append(append([]export.Point(nil), ov.Marks...), ov.Best...) {
+		fig.Marks = append(fig.Marks, render.Mark{X: p.X, Y: p.Y, Label: markLabel(p)})
+	}
+	return fig
+}
+
+// markLabel is the text beside a marked point: its name, decay rate and Ms.
+func markLabel(p export.Point) string {
+	if !p.Stable {
+		return p.Label + ": unstable"
+	}
+	s := fmt.Sprintf("%s: σ=%.3g", p.Label, float64(p.Decay))
+	if !math.IsNaN(float64(p.Ms)) {
+		s += fmt.Sprintf(", Ms=%.3g", float64(p.Ms))
+	}
+	return s
+}

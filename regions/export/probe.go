@@ -1,0 +1,107 @@
+package export
+
+import "gainscape/regions/stability"
+
+// Probe is the probe --json document for one design point. Its field
+// names are a stable contract.
+type Probe struct {
+	Plant          string             `json:"plant"`
+	Controller     string             `json:"controller"`
+	Values         map[string]float64 `json:"values"`
+	Characteristic []float64          `json:"characteristic"` // highest power first
+	SignArray      []SignRow          `json:"sign_array"`
+	Aux            []float64          `json:"auxiliary_polynomial,omitempty"`
+	Stable         bool               `json:"stable"`
+	CountFrom      string             `json:"count_from"`
+	RHP            int                `json:"rhp"`
+	JW             int                `json:"jw_roots"`
+	JWOmegas       []float64          `json:"jw_omegas"`
+	DegreeDrop     int                `json:"degree_drop"`
+	Poles          [][2]float64       `json:"poles"`
+	DecayRate      float64            `json:"decay_rate"`
+	MinDamping     float64            `json:"min_damping"`
+	GainMargin     Number             `json:"gain_margin"`
+	GainMarginDB   Number             `json:"gain_margin_db"`
+	PhaseCrossover Number             `json:"phase_crossover"`
+	PhaseMargin    Number             `json:"phase_margin_deg"`
+	GainCrossover  Number             `json:"gain_crossover"`
+	Ms             float64            `json:"ms"`
+	MsFreq         Number             `json:"ms_freq"`
+	Mt             float64            `json:"mt"`
+	MtFreq         Number             `json:"mt_freq"`
+	Fragility      *Fragility         `json:"fragility,omitempty"`
+	Ultimate       *Ultimate          `json:"ultimate,omitempty"`
+	Caution        string             `json:"caution"`
+}
+
+// SignRow is one row of the sign array.
+type SignRow struct {
+	Power     int      `json:"power"`
+	Entries   []string `json:"entries"`
+	Epsilon   bool     `json:"epsilon_rule,omitempty"`
+	Auxiliary bool     `json:"from_auxiliary,omitempty"`
+}
+
+// Fragility is the distance from a design point to the nearest stability
+// edge in a plane of two parameters.
+type Fragility struct {
+	// Plane names the two parameters, e.g. ["kp", "ki"].
+	Plane [2]string `json:"plane"`
+	// Window is [xmin, xmax, ymin, ymax] of the map searched.
+	Window [4]float64 `json:"window"`
+	// Found is false when no edge lies in the window.
+	Found    bool         `json:"found"`
+	Absolute *NearestEdge `json:"absolute,omitempty"`
+	Relative *NearestEdge `json:"relative,omitempty"`
+}
+
+// NearestEdge is the edge point nearest the design point in one metric.
+type NearestEdge struct {
+	Distance float64        `json:"distance"`
+	Point    [2]float64     `json:"point"`
+	Kind     stability.Kind `json:"kind"`
+	Omega    Number         `json:"omega"`
+}
+
+// Ultimate is the ultimate gain and period of the proportional-only loop
+// and the tuning rules computed from them.
+type Ultimate struct {
+	Ku    float64 `json:"ku"`
+	Tu    float64 `json:"tu"`
+	Rules []Rule  `json:"rules"`
+}
+
+// Rule is one setting from a published tuning rule.
+type Rule struct {
+	Name   string  `json:"Name"`
+	Source string  `json:"Source"`
+	Family string  `json:"Family"`
+	Kp     float64 `json:"Kp"`
+	Ki     float64 `json:"Ki"`
+	Kd     float64 `json:"Kd"`
+}
+
+// Vary is the probe --vary --json document: the stable intervals of one
+// parameter.
+type Vary struct {
+	Plant      string             `json:"plant"`
+	Controller string             `json:"controller"`
+	Param      string             `json:"param"`
+	Min        float64            `json:"min"`
+	Max        float64            `json:"max"`
+	Fixed      map[string]float64 `json:"fixed"`
+	Intervals  []Interval         `json:"intervals"`
+	Caution    string             `json:"caution"`
+}
+
+// Interval is one stable interval (Lo, Hi) and how each end is reached.
+// A kind is "real", "complex", "infinite" or "window" (the end of the
+// range scanned).
+type Interval struct {
+	Lo      float64 `json:"lo"`
+	Hi      float64 `json:"hi"`
+	LoKind  string  `json:"lo_kind"`
+	HiKind  string  `json:"hi_kind"`
+	LoOmega Number  `json:"lo_omega"`
+	HiOmega Number  `json:"hi_omega"`
+}

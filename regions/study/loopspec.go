@@ -1,0 +1,122 @@
+package study
+
+import (
+	"fmt"
+	"slices"
+	"strconv"
+	"strings"
+
+	"gainscape/regions/expr"
+	"gainscape/regions/family"
+	"gainscape/regions/loop"
+	"gainscape/regions/poly"
+	"gainscape/regions/spec"
+)
+
+// LoopSpec is a loop as the user gives it: a plant expression or
+// coefficient lists (highest power first), a controller family name and
+// values for some of its parameters.
+type LoopSpec struct {
+	Plant      string
+	Num, Den   []float64
+	Controller string
+	Fixed      []spec.Value
+}
+
+// PlantText is the plant as the user gave it, for titles and reports.
+func (ls LoopSpec) PlantText() string {
+	if ls.Plant != "" {
+		return ls.Plant
+	}
+	return fmt.Sprintf("(%s)/(%s)", numbersText(ls.Num), numbersText(ls.Den))
+}
+
+// Build parses and checks the plant, looks up the controller family and
+// sets the fixed values over the family defaults. Errors are
+// *InputError values naming the flag of the faulty input.
+func (ls LoopSpec) Build() (loop.Loop, error) {
+	var pn, pd poly.Poly
+	switch {
+	case ls.Plant != "" && (ls.Num != nil || ls.Den != nil):
+		return loop.Loop{}, inputErr("--plant", "loop.plant", "", "cannot be combined with --num/--den; give the plant one way")
+	case ls.Plant != "":
+		var err error
+		if pn, pd, err = expr.Parse(ls.Plant); err != nil {
+			return loop.Loop{}, &InputError{Flag: "--plant", Key: "loop.plant", Err: err}
+		}
+		if err := expr.Check(pn, pd); err != nil {
+			return loop.Loop{}, &InputError{Flag: "--plant", Key: "loop.plant", Value: strconv.Quote(ls.Plant), Err: err}
+		}
+	case ls.Num != nil && ls.Den != nil:
+		pn, pd = poly.FromDescending(ls.Num), poly.FromDescending(ls.Den)
+		if err := expr.Check(pn, pd); err != nil {
+			return loop.Loop{}, &InputError{Flag: "--num", Key: "loop.numerator", Value: listText(ls.Num) + " --den " + listText(ls.Den), Err: err}
+		}
+	default:
+		return loop.Loop{}, inputErr("--plant", "loop.plant", "", "give the plant as --plant EXPR, or as both --num and --den")
+	}
+	fam, err := family.Lookup(ls.Controller)
+	if err != nil {
+		return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
+	}
+	l := loop.New(loop.Plant{Num: pn, Den: pd}, fam)
+	for _, v := range ls.Fixed {
+		i, err := family.Index(fam, v.Param)
+		if err != nil {
+			return loop.Loop{}, &InputError{Flag: "--set", Key: "fixed." + v.Param, Value: fmt.Sprintf("%s=%g", v.Param, v.V), Err: err}
+		}
+		l.Values[i] = v.V
+	}
+	return l, nil
+}
+
+// Value is a named parameter value, for reports that list parameters in
+// the family's order.
+type Value struct {
+	Name  string
+	Value float64
+}
+
+// valuesOf lists the parameters of l other than skip, in family order.
+func valuesOf(l loop.Loop, skip ...int) []Value {
+	var out []Value
+	for i, p := range l.Family.Params() {
+		if !slices.Contains(skip, i) {
+			out = append(out, Value{p.Name, l.Values[i]})
+		}
+	}
+	return out
+}
+
+// valueMap is valuesOf as a map, for JSON.
+func valueMap(l loop.Loop, skip ...int) map[string]float64 {
+	out := map[string]float64{}
+	for _, v := range valuesOf(l, skip...) {
+		out[v.Name] = v.Value
+	}
+	return out
+}
+
+// ValuesText lists values as "kd = 0.5, tau = 0".
+func ValuesText(vs []Value) string {
+	parts := make([]string, len(vs))
+	for i, v := range vs {
+		parts[i] = fmt.Sprintf("%s = %g", v.Name, v.Value)
+	}
+	return strings.Join(parts, ", ")
+}
+
+// listText writes coefficients as the --num and --den flags take them.
+func listText(c []float64) string {
+	return strconv.Quote(strings.Join(formatAll(c), ", "))
+}
+
+func numbersText(v []float64) string { return strings.Join(formatAll(v), ",") }
+
+func formatAll(v []float64) []string {
+	parts := make([]string, len(v))
+	for i, x := range v {
+		parts[i] = strconv.FormatFloat(x, 'g', -1, 64)
+	}
+	return parts
+}

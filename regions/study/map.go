@@ -1,0 +1,159 @@
+package study
+
+import (
+	"context"
+	"fmt"
+	"math"
+
+	"gainscape/regions/boundary"
+	"gainscape/regions/export"
+	"gainscape/regions/grid"
+	"gainscape/regions/plane"
+	"gainscape/regions/scenario"
+	"gainscape/regions/stability"
+)
+
+// MapJob is a map ready to compute: the loop in the plane of the two
+// axis parameters, checked, with its characteristic function built.
+type MapJob struct {
+	sc    scenario.Scenario
+	setup plane.Setup
+	plant string
+}
+
+// NewMap checks a validated scenario and builds its loop and plane. Errors
+// are *InputError values.
+func NewMap(sc scenario.Scenario) (*MapJob, error) {
+	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed}
+	l, err := ls.Build()
+	if err != nil {
+		return nil, err
+	}
+	x := plane.Axis{Param: sc.Axes.X.Param, Min: sc.Axes.X.Min, Max: sc.Axes.X.Max, N: sc.Axes.Columns}
+	y := plane.Axis{Param: sc.Axes.Y.Param, Min: sc.Axes.Y.Min, Max: sc.Axes.Y.Max, N: sc.Axes.Rows}
+	s, err := plane.NewSetup(l, x, y)
+	if err != nil {
+		return nil, inputErr("--x", "axes.x", axisText(x)+" --y "+axisText(y), "%v", err)
+	}
+	return &MapJob{sc: sc, setup: s, plant: ls.PlantText()}, nil
+}
+
+func axisText(a plane.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }
+
+// Warnings returns warnings about the map to show before it is computed:
+// characteristic coefficients at the window's corners that span so many
+// decades that products in the sign array approach the limits of double
+// precision, where nodes it cannot decide are reported as undecided
+// rather than guessed.
+func (j *MapJob) Warnings() []string {
+	s := j.setup
+	lo, hi := math.Inf(1), 0.0
+	for _, x := range []float64{s.X.Min, s.X.Max} {
+		for _, y := range []float64{s.Y.Min, s.Y.Max} {
+			for _, c := range s.Char.Eval(x, y) {
+				if a := math.Abs(c); a != 0 {
+					lo, hi = math.Min(lo, a), math.Max(hi, a)
+				}
+			}
+		}
+	}
+	if hi > 1e100 || lo < 1e-100 || hi/lo > 1e150 {
+		return []string{fmt.Sprintf("warning: characteristic coefficients range from %.3g to %.3g; the sign array may lose meaning, and nodes it cannot decide are marked undecided — consider rescaling time (s) or gains", lo, hi)}
+	}
+	return nil
+}
+
+// MapResult is everything computed for one map.
+type MapResult struct {
+	// Plant is the plant as the user gave it; Controller the family name
+	// and Formula its transfer function.
+	Plant, Controller, Formula string
+	// Fixed lists the parameters that are not axes, in family order.
+	Fixed []Value
+	// X and Y are the axes.
+	X, Y plane.Axis
+	// Map holds the right-half-plane count at every node.
+	Map *grid.Map
+	// Curves are the edges of the regions, refined.
+	Curves []boundary.Curve
+	// Stats summarises the map.
+	Stats grid.Stats
+	// Edges counts the edge curves of each kind.
+	Edges map[stability.Kind]int
+	// Overlays is nil when none was asked for.
+	Overlays *Overlays
+}
+
+// Run computes the map, its edges and the overlays the scenario asks for.
+// It returns ctx.Err() if cancelled.
+func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
+	s := j.setup
+	set, finish := opt.stage("mapping", s.Y.N)
+	m, err := grid.Evaluate(ctx, s, grid.Options{Workers: opt.Workers, Progress: set})
+	finish()
+	if err != nil {
+		return nil, err
+	}
+	curves, err := boundary.Trace(ctx, s, m, opt.Workers)
+	if err != nil {
+		return nil, err
+	}
+	res := &MapResult{
+		Plant: j.plant, Controller: s.Family.Name(), Formula: s.Family.Formula(),
+		Fixed: valuesOf(s.Loop, s.XIndex, s.YIndex), X: s.X, Y: s.Y,
+		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{},
+	}
+	for _, c := range curves {
+		res.Edges[c.Kind]++
+	}
+	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
+		return nil, err
+	}
+	return res, nil
+}
+
+// OmegaRange returns the smallest and largest ω on complex-root edges.
+func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, c := range r.Curves {
+		if c.Kind != stability.Complex {
+			continue
+		}
+		for _, p := range c.Points {
+			if !math.IsNaN(p.Omega) {
+				lo, hi, ok = math.Min(lo, p.Omega), math.Max(hi, p.Omega), true
+			}
+		}
+	}
+	return lo, hi, ok
+}
+
+// Data returns the --data document of the map.
+func (r *MapResult) Data() *export.Region {
+	doc := &export.Region{
+		Plant: r.Plant, Controller: r.Controller, Fixed: map[string]float64{},
+		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Boundaries: []export.Boundary{},
+	}
+	for _, v := range r.Fixed {
+		doc.Fixed[v.Name] = v.Value
+	}
+	for _, c := range r.Curves {
+		b := export.Boundary{Kind: c.Kind, Points: make([][3]export.Number, len(c.Points))}
+		for k, p := range c.Points {
+			b.Points[k] = [3]export.Number{export.Number(p.X), export.Number(p.Y), export.Number(p.Omega)}
+		}
+		doc.Boundaries = append(doc.Boundaries, b)
+	}
+	st := r.Stats
+	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
+	if st.Stable > 0 {
+		doc.Summary.StableBox = &[4]float64{st.XMin, st.XMax, st.YMin, st.YMax}
+	}
+	if lo, hi, ok := r.OmegaRange(); ok {
+		doc.Summary.OmegaRange = &[2]float64{lo, hi}
+	}
+	if r.Overlays != nil {
+		doc.Extra = r.Overlays.data()
+	}
+	return doc
+}

@@ -1,0 +1,223 @@
+package study
+
+import (
+	"context"
+	"math"
+	"slices"
+	"strings"
+
+	"gainscape/regions/export"
+	"gainscape/regions/family"
+	"gainscape/regions/grid"
+	"gainscape/regions/isoline"
+	"gainscape/regions/margins"
+	"gainscape/regions/overlay"
+	"gainscape/regions/plane"
+	"gainscape/regions/poly"
+	"gainscape/regions/scenario"
+	"gainscape/regions/spec"
+)
+
+// Names of the best-point searches, as --best and the scenario key best
+// take them.
+const (
+	BestDecay    = "decay" // the largest decay rate in the window
+	BestIntegral = "ki"    // the largest integral gain with Ms at most the bound
+)
+
+// defaultKiBound is the Ms limit of the ki search when the scenario sets
+// none: the tight end of the usual robustness band 1.4–2.0 (common
+// practice).
+const defaultKiBound = 1.4
+
+// Overlays are the quantities computed over the stable region, with the
+// iso-lines traced once for both the figure and the data.
+type Overlays struct {
+	XAxis, YAxis plane.Axis
+	// Decay is always computed; Damping and Ms only when asked for.
+	Decay, Damping, Ms *Layer
+	// Marks and Best are the marked and the found design points.
+	Marks, Best []export.Point
+}
+
+// Layer is one overlay grid and its iso-lines.
+type Layer struct {
+	// Values is row-major like grid.Map, NaN outside the stable region.
+	Values []float64
+	// Levels are the iso-line levels asked for; Lines[k] are the lines
+	// of Levels[k].
+	Levels []float64
+	Lines  [][]isoline.Line
+}
+
+func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
+	if values == nil {
+		return nil
+	}
+	l := &Layer{Values: values, Levels: levels}
+	for _, level := range levels {
+		l.Lines = append(l.Lines, isoline.Trace(x, y, values, level))
+	}
+	return l
+}
+
+// computeOverlays evaluates the overlays, marks and searches of ov, or
+// returns nil when none is asked for.
+func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, opt Options) (*Overlays, error) {
+	wantMs := len(ov.MsLevels) > 0 || slices.Contains(ov.Best, BestIntegral)
+	if !ov.Decay && len(ov.DecayLevels) == 0 && len(ov.DampingLevels) == 0 && !wantMs && len(ov.Best) == 0 && len(ov.Marks) == 0 {
+		return nil, nil
+	}
+	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0}
+	if wantMs {
+		ev, err := msEvaluator(s)
+		if err != nil {
+			return nil, err
+		}
+		o.Sensitivity = ev.Ms
+	}
+	set, finish := opt.stage("overlays", s.Y.N)
+	o.Progress = set
+	g, err := overlay.Compute(ctx, s, m, o)
+	finish()
+	if err != nil {
+		return nil, err
+	}
+	res := &Overlays{
+		XAxis: g.XAxis, YAxis: g.YAxis,
+		Decay:   newLayer(g.XAxis, g.YAxis, g.Decay, ov.DecayLevels),
+		Damping: newLayer(g.XAxis, g.YAxis, g.Damping, ov.DampingLevels),
+		Ms:      newLayer(g.XAxis, g.YAxis, g.Ms, ov.MsLevels),
+	}
+	for k, mk := range ov.Marks {
+		p, err := markPoint(s, mk)
+		if err != nil {
+			return nil, err
+		}
+		p.Label = string(rune('A' + k%26))
+		res.Marks = append(res.Marks, p)
+	}
+	for _, b := range ov.Best {
+		var best overlay.Optimum
+		var err error
+		switch b {
+		case BestDecay:
+			best, err = overlay.BestDecay(s, g, o)
+		case BestIntegral:
+			bound := ov.MsBound
+			if bound == 0 {
+				bound = defaultKiBound
+			}
+			best, err = overlay.BestIntegral(s, g, o, bound)
+		}
+		if err != nil {
+			return nil, &InputError{Flag: "--best", Key: "overlays.best", Value: b, Err: err}
+		}
+		p, _ := pointAt(s, best.X, best.Y)
+		p.Label, p.Criterion = "best "+b, best.Criterion
+		res.Best = append(res.Best, p)
+	}
+	return res, nil
+}
+
+// msEvaluator returns a fast Ms evaluator whose frequency grid covers the
+// loop at the centre of the window.
+func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
+	centre := s.At(0.5*(s.X.Min+s.X.Max), 0.5*(s.Y.Min+s.Y.Max))
+	num, den := centre.Open()
+	lo, hi := margins.Loop{Num: num, Den: den}.FrequencyRange()
+	// The plant's own resonances are the same at every node; the grid is
+	// enriched around them so that no narrow peak of |S| is missed.
+	var roots []complex128
+	for _, p := range []poly.Poly{centre.Plant.Num, centre.Plant.Den} {
+		if r, err := p.Trim(0).Roots(); err == nil {
+			roots = append(roots, r...)
+		}
+	}
+	return margins.NewMsEvaluatorNear(lo, hi, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots)
+}
+
+// markPoint places a mark in the plane: it must give both axis
+// parameters; others it gives change the loop at that point only.
+func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
+	x, y := math.NaN(), math.NaN()
+	l := s.Loop
+	l.Values = append([]float64(nil), l.Values...)
+	for _, v := range vals {
+		i, err := family.Index(l.Family, v.Param)
+		if err != nil {
+			return export.Point{}, &InputError{Flag: "--mark", Key: "overlays.marks", Value: v.Param + "=" + formatAll([]float64{v.V})[0], Err: err}
+		}
+		l.Values[i] = v.V
+		switch i {
+		case s.XIndex:
+			x = v.V
+		case s.YIndex:
+			y = v.V
+		}
+	}
+	if math.IsNaN(x) || math.IsNaN(y) {
+		return export.Point{}, inputErr("--mark", "overlays.marks", valuesList(vals), "give both %s and %s", s.X.Param, s.Y.Param)
+	}
+	s.Loop = l
+	return pointAt(s, x, y)
+}
+
+// pointAt describes the loop at (x, y) of the plane.
+func pointAt(s plane.Setup, x, y float64) (export.Point, error) {
+	l := s.At(x, y)
+	p := export.Point{Values: valueMap(l), X: x, Y: y}
+	poles, err := margins.Poles(l.Characteristic())
+	if err != nil {
+		return p, err
+	}
+	p.Decay, p.Damping = export.Number(margins.DecayRate(poles)), export.Number(margins.MinDamping(poles))
+	p.Stable = margins.DecayRate(poles) > 0
+	num, den := l.Open()
+	mg, err := margins.Loop{Num: num, Den: den}.Margins()
+	p.Ms = export.Number(math.NaN())
+	if err == nil && p.Stable {
+		p.Ms = export.Number(mg.Ms)
+	}
+	return p, nil
+}
+
+// valuesList writes values as --mark takes them.
+func valuesList(vals []spec.Value) string {
+	parts := make([]string, len(vals))
+	for i, v := range vals {
+		parts[i] = v.Param + "=" + formatAll([]float64{v.V})[0]
+	}
+	return strings.Join(parts, ",")
+}
+
+// data returns the overlays as they are written to --data.
+func (o *Overlays) data() *export.Extra {
+	layer := func(l *Layer) *export.Layer {
+		if l == nil {
+			return nil
+		}
+		out := &export.Layer{Contours: []export.Contour{}, Levels: l.Levels, Values: export.Rows(l.Values, o.XAxis.N, o.YAxis.N)}
+		if out.Levels == nil {
+			out.Levels = []float64{}
+		}
+		for k, level := range l.Levels {
+			lines := l.Lines[k]
+			if lines == nil {
+				lines = []isoline.Line{}
+			}
+			out.Contours = append(out.Contours, export.Contour{Level: level, Lines: lines})
+		}
+		return out
+	}
+	ex := &export.Extra{Best: o.Best, Marks: o.Marks, Overlays: export.Overlays{
+		DecayRate: layer(o.Decay), MinDamping: layer(o.Damping), Ms: layer(o.Ms),
+	}}
+	if ex.Best == nil {
+		ex.Best = []export.Point{}
+	}
+	if ex.Marks == nil {
+		ex.Marks = []export.Point{}
+	}
+	return ex
+}
