@@ -131,17 +131,24 @@ func benchCompute(b *testing.B, setup func(testing.TB) plane.Setup, damping bool
 	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*stable), "ns/node")
 }
 
-func BenchmarkNodeCountSmall(b *testing.B)       { benchCount(b, smallSetup) }
-func BenchmarkNodeDecayShiftSmall(b *testing.B)  { benchShift(b, smallSetup) }
-func BenchmarkNodeDecayCountSmall(b *testing.B)  { benchShiftCount(b, smallSetup) }
-func BenchmarkNodeDecayEigenSmall(b *testing.B)  { benchEigen(b, smallSetup) }
-func BenchmarkNodePolyRootsSmall(b *testing.B)   { benchRoots(b, smallSetup) }
-func BenchmarkNodeComputeSmall(b *testing.B)     { benchCompute(b, smallSetup, false) }
-func BenchmarkNodeComputeDampSmall(b *testing.B) { benchCompute(b, smallSetup, true) }
-func BenchmarkNodeCountLarge(b *testing.B)       { benchCount(b, largeSetup) }
-func BenchmarkNodeDecayShiftLarge(b *testing.B)  { benchShift(b, largeSetup) }
-func BenchmarkNodeDecayCountLarge(b *testing.B)  { benchShiftCount(b, largeSetup) }
-func BenchmarkNodeDecayEigenLarge(b *testing.B)  { benchEigen(b, largeSetup) }
-func BenchmarkNodePolyRootsLarge(b *testing.B)   { benchRoots(b, largeSetup) }
-func BenchmarkNodeComputeLarge(b *testing.B)     { benchCompute(b, largeSetup, false) }
-func BenchmarkNodeComputeDampLarge(b *testing.B) { benchCompute(b, largeSetup, true) }
+// BenchmarkNode compares the per-node costs of the overlay routes on a
+// small and a large plane, in one run.
+func BenchmarkNode(b *testing.B) {
+	setups := []struct {
+		name  string
+		setup func(testing.TB) plane.Setup
+	}{{"Small", smallSetup}, {"Large", largeSetup}}
+	for _, st := range setups {
+		for _, m := range []struct {
+			name string
+			run  func(*testing.B, func(testing.TB) plane.Setup)
+		}{
+			{"Count", benchCount}, {"DecayShift", benchShift}, {"DecayCount", benchShiftCount}, {"DecayEigen", benchEigen},
+			{"PolyRoots", benchRoots},
+			{"Compute", func(b *testing.B, s func(testing.TB) plane.Setup) { benchCompute(b, s, false) }},
+			{"ComputeDamp", func(b *testing.B, s func(testing.TB) plane.Setup) { benchCompute(b, s, true) }},
+		} {
+			b.Run(m.name+st.name, func(b *testing.B) { m.run(b, st.setup) })
+		}
+	}
+}
