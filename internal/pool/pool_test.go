@@ -7,21 +7,13 @@ import (
 	"testing"
 )
 
+// TestWorkers checks the cap: the default, fewer items than workers, an
+// absurd request and no items at all.
 func TestWorkers(t *testing.T) {
-	tests := []struct {
-		name       string
-		workers, n int
-		want       int
-	}{
-		{"default", 0, 1000, min(runtime.NumCPU(), 1000)},
-		{"negative means default", -3, 1000, min(runtime.NumCPU(), 1000)},
-		{"fewer items than workers", 8, 3, 3},
-		{"absurd request is capped", 1 << 62, 1 << 40, MaxWorkers},
-		{"no items still one worker", 4, 0, 1},
-	}
-	for _, tc := range tests {
-		if got := Workers(tc.workers, tc.n); got != tc.want {
-			t.Errorf("%s: Workers(%d, %d) = %d; want %d", tc.name, tc.workers, tc.n, got, tc.want)
+	all := min(runtime.NumCPU(), 1000)
+	for _, c := range [][3]int{{0, 1000, all}, {-3, 1000, all}, {8, 3, 3}, {1 << 62, 1 << 40, MaxWorkers}, {4, 0, 1}} {
+		if got := Workers(c[0], c[1]); got != c[2] {
+			t.Errorf("Workers(%d, %d) = %d; want %d", c[0], c[1], got, c[2])
 		}
 	}
 }

@@ -14,34 +14,25 @@ const polishSteps = 8
 // a companion matrix, or from a factor of p found with rounding, gain
 // their last digits this way.
 func (p Poly) Polish(r complex128) complex128 {
-	dp := p.Derivative()
-	best := cmplx.Abs(p.Eval(r))
-	for it := 0; it < polishSteps && best > 0; it++ {
-		d := dp.Eval(r)
-		if d == 0 {
-			break
-		}
-		next := r - p.Eval(r)/d
-		v := cmplx.Abs(p.Eval(next))
-		if !(v < best) {
-			break
-		}
-		r, best = next, v
-	}
-	return r
+	return newton(r, p.Eval, p.Derivative().Eval, cmplx.Abs)
 }
 
 // PolishReal is Polish for a real root x of p.
 func (p Poly) PolishReal(x float64) float64 {
-	dp := p.Derivative()
-	best := math.Abs(p.EvalReal(x))
+	return newton(x, p.EvalReal, p.Derivative().EvalReal, math.Abs)
+}
+
+// newton runs at most polishSteps steps of Newton's method on f with
+// derivative df from x, stopping as soon as a step fails to reduce |f|.
+func newton[T float64 | complex128](x T, f, df func(T) T, abs func(T) float64) T {
+	best := abs(f(x))
 	for it := 0; it < polishSteps && best > 0; it++ {
-		d := dp.EvalReal(x)
+		d := df(x)
 		if d == 0 {
 			break
 		}
-		next := x - p.EvalReal(x)/d
-		v := math.Abs(p.EvalReal(next))
+		next := x - f(x)/d
+		v := abs(f(next))
 		if !(v < best) {
 			break
 		}

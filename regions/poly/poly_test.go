@@ -8,8 +8,9 @@ import (
 	"testing"
 )
 
+// TestArithmetic compares each operation with a result worked by hand.
 func TestArithmetic(t *testing.T) {
-	tests := []struct {
+	for _, tc := range []struct {
 		name      string
 		got, want Poly
 	}{
@@ -30,8 +31,7 @@ func TestArithmetic(t *testing.T) {
 		{"FromDescending", FromDescending([]float64{1, 2, 3}), Poly{3, 2, 1}},
 		{"Trim relative", Poly{1, 2, 1e-15}.Trim(RelTol), Poly{1, 2}},
 		{"Trim exact zeros only", Poly{1, 0, 0}.Trim(0), Poly{1}},
-	}
-	for _, tc := range tests {
+	} {
 		if len(tc.got) != len(tc.want) {
 			t.Errorf("%s: %v; want %v", tc.name, tc.got, tc.want)
 			continue
