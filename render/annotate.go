@@ -139,7 +139,7 @@ func (a annotations) isoTexts(pl *placer, trX, trY transform) []isoText {
 	var out []isoText
 	for i, set := range a.iso {
 		for _, lv := range set.levels {
-			it := isoText{text: set.name + "=" + formatNumber(lv.level), colour: contourLabelColour(i)}
+			it := isoText{text: set.name + "=" + formatNumber(lv.level), colour: contourLabelColour(a.fig.Contours[i].Look)}
 			for _, xys := range lv.lines {
 				if len(xys) < 2 {
 					continue

@@ -20,6 +20,7 @@ import (
 	"gainscape/regions/grid"
 	"gainscape/regions/isoline"
 	"gainscape/regions/plane"
+	"gainscape/regions/stability"
 )
 
 // Figure is everything one map image shows.
@@ -42,9 +43,9 @@ type Figure struct {
 	// stable region instead of a flat fill; the unstable region is then
 	// shaded in muted tones.
 	Shade *Field
-	// Contours are iso-lines of fields, each set drawn in its own dash
-	// pattern and colour, in this order, and labelled "Name=level" in
-	// its colour; a fifth set repeats the first one's look.
+	// Contours are iso-lines of fields, each set drawn in the dash
+	// pattern and colour of its Look and labelled "Name=level" in its
+	// colour.
 	Contours []ContourSet
 	// Marks are design points drawn as a symbol with a label.
 	Marks []Mark
@@ -106,6 +107,10 @@ type ContourSet struct {
 	Levels []float64
 	// Lines[k] are the iso-lines at Levels[k].
 	Lines [][]isoline.Line
+	// Look picks the set's colour and dash pattern from the iso-line
+	// looks (modulo their number), so that a quantity keeps one style
+	// whatever else a figure shows.
+	Look int
 	// Name is written before the level in the line labels and in the
 	// legend, e.g. "Ms".
 	Name string
@@ -153,7 +158,7 @@ func (f *Figure) check() error {
 	if err := checkAxis("map y", f.Map.YAxis); err != nil {
 		return err
 	}
-	if n := f.Map.XAxis.N * f.Map.YAxis.N; len(f.Map.RHP) != n {
+	if n := f.Map.XAxis.N * f.Map.YAxis.N; len(f.Map.RHP) != n || len(f.Map.Axis) != n {
 		return fmt.Errorf("render: map has %d counts for a %d×%d grid", len(f.Map.RHP), f.Map.XAxis.N, f.Map.YAxis.N)
 	}
 	if f.Shade != nil {
@@ -204,7 +209,7 @@ type stableOnly struct {
 func (s stableOnly) Z(c, r int) float64 {
 	i := nearest(s.m.XAxis, s.Field.X(c))
 	j := nearest(s.m.YAxis, s.Field.Y(r))
-	if i < 0 || j < 0 || s.m.Count(i, j) != 0 {
+	if i < 0 || j < 0 || s.m.Class(i, j) != stability.ClassStable {
 		return math.NaN()
 	}
 	return s.Field.Z(c, r)

@@ -13,6 +13,7 @@ import (
 	"gonum.org/v1/plot/vg/draw"
 
 	"gainscape/regions/isoline"
+	"gainscape/regions/stability"
 )
 
 // The page is laid out as a header (title and notes) across the top, the
@@ -155,7 +156,12 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*pl
 
 	m := f.Map
 	fills := cellFill{dpi: fillDPI, layers: []cellLayer{
-		{g: m, colour: func(c, r int) color.Color { return rc.count(m.Count(c, r)) }},
+		{g: m, colour: func(c, r int) color.Color {
+			if m.Class(c, r) == stability.ClassMarginal {
+				return rc.marginal
+			}
+			return rc.count(m.Count(c, r))
+		}},
 	}}
 	xe, ye := cellEdges(m.XAxis.N, m.X), cellEdges(m.YAxis.N, m.Y)
 	p.X.Min, p.X.Max = xe[0], xe[len(xe)-1]
@@ -176,14 +182,14 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*pl
 		p.Add(undecidedHatch{m})
 	}
 	ann := annotations{fig: f}
-	for i, cs := range f.Contours {
+	for _, cs := range f.Contours {
 		set := isoSet{name: cs.Name}
 		for li, level := range cs.Levels {
 			traced := cs.Lines[li]
 			lines := make([]plotter.XYs, len(traced))
 			for k, l := range traced {
 				lines[k] = lineXYs(l)
-				p.Add(plotOnly{&plotter.Line{XYs: lines[k], LineStyle: contourStyle(i)}})
+				p.Add(plotOnly{&plotter.Line{XYs: lines[k], LineStyle: contourStyle(cs.Look)}})
 			}
 			set.levels = append(set.levels, isoLevel{level, lines})
 		}

@@ -43,8 +43,10 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	var out []legendSection
 
 	present := map[int]bool{}
-	for _, c := range f.Map.RHP {
-		present[min(int(c), distinctCounts)] = true
+	for k, c := range f.Map.RHP {
+		if f.Map.ClassAt(k) != stability.ClassMarginal {
+			present[min(int(c), distinctCounts)] = true
+		}
 	}
 	maxCount := 0
 	for _, c := range f.Map.RHP {
@@ -66,6 +68,9 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 			countText(k, k == distinctCounts && maxCount > distinctCounts),
 			[]plot.Thumbnailer{swatch{fill: rc.count(k)}},
 		})
+	}
+	if hasMarginal(f.Map) {
+		regions.entries = append(regions.entries, legendEntry{"marginal (root on axis)", []plot.Thumbnailer{swatch{fill: rc.marginal}}})
 	}
 	if present[grid.Undecided] {
 		regions.entries = append(regions.entries, legendEntry{"undecided", []plot.Thumbnailer{swatch{fill: rc.undecided, hatched: true}}})
@@ -89,8 +94,8 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	}
 
 	iso := legendSection{heading: "Iso-lines"}
-	for i, cs := range f.Contours {
-		iso.entries = append(iso.entries, legendEntry{contourText(cs), []plot.Thumbnailer{lineThumb{contourStyle(i)}}})
+	for _, cs := range f.Contours {
+		iso.entries = append(iso.entries, legendEntry{contourText(cs), []plot.Thumbnailer{lineThumb{contourStyle(cs.Look)}}})
 	}
 	if len(iso.entries) > 0 {
 		out = append(out, iso)
@@ -217,3 +222,13 @@ type markThumb struct{}
 
 // Thumbnail draws the mark symbol in the middle of the thumbnail.
 func (markThumb) Thumbnail(c *draw.Canvas) { drawMark(*c, c.Center()) }
+
+// hasMarginal reports whether any node of m is marginal.
+func hasMarginal(m *grid.Map) bool {
+	for k := range m.RHP {
+		if m.ClassAt(k) == stability.ClassMarginal {
+			return true
+		}
+	}
+	return false
+}

@@ -37,6 +37,10 @@ type regionColours struct {
 	stable    color.Color
 	unstable  [distinctCounts]color.Color // unstable[k-1] is k roots
 	undecided color.Color                 // ground under the hatching
+	// marginal fills nodes on an edge: a violet of middle lightness that
+	// no count's shade has, darker than the stable fill and lighter than
+	// the edge lines drawn over it.
+	marginal color.Color
 }
 
 // mutedLightness holds the CIE L* (0–1) of the muted shades, index k-1
@@ -58,6 +62,7 @@ func countColours(muted bool) regionColours {
 	rc := regionColours{
 		stable:    hcl(200, 0.20, 0.94),
 		undecided: color.White,
+		marginal:  hcl(310, 0.30, 0.52),
 	}
 	for k := 1; k <= distinctCounts; k++ {
 		f := float64(k - 1)

@@ -36,12 +36,15 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 	if ov.Decay != nil && sc.Overlays.Decay {
 		fig.Shade = &render.Field{XAxis: ov.XAxis, YAxis: ov.YAxis, Values: ov.Decay.Values, Name: "decay rate σ (1/s)"}
 	}
+	// Each quantity keeps its look whatever else is drawn: Ms the first,
+	// damping the second, decay rate the third.
 	for _, c := range []struct {
 		layer *study.Layer
 		name  string
-	}{{ov.Decay, "σ"}, {ov.Damping, "ζ"}, {ov.Ms, "Ms"}} {
+		look  int
+	}{{ov.Decay, "σ", 2}, {ov.Damping, "ζ", 1}, {ov.Ms, "Ms", 0}} {
 		if c.layer != nil && len(c.layer.Levels) > 0 {
-			fig.Contours = append(fig.Contours, render.ContourSet{Levels: c.layer.Levels, Lines: c.layer.Lines, Name: c.name})
+			fig.Contours = append(fig.Contours, render.ContourSet{Levels: c.layer.Levels, Lines: c.layer.Lines, Name: c.name, Look: c.look})
 		}
 	}
 	for _, p := range append(append([]export.Point(nil), ov.Marks...), ov.Best...) {

@@ -56,6 +56,9 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 	} else {
 		b.WriteString("- Stable: no stable node in the window\n")
 	}
+	if st.Marginal > 0 {
+		fmt.Fprintf(&b, "- Marginal: %d nodes have a root on the imaginary axis (on an edge, not stable)\n", st.Marginal)
+	}
 	if lo, hi, ok := res.OmegaRange(); ok {
 		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g rad/s\n", lo, hi)
 	}

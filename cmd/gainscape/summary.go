@@ -32,8 +32,13 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 	if st.Stable > 0 {
 		fmt.Fprintf(w, "stable      %.1f%% of the window; stable nodes span %s %.4g…%.4g, %s %.4g…%.4g\n",
 			100*st.StableFraction(), x.Param, st.XMin, st.XMax, y.Param, st.YMin, st.YMax)
-	} else {
+	} else if st.MaxRHP > 0 {
 		fmt.Fprintf(w, "stable      no stable node in the window (most unstable: %d roots in the right half plane)\n", st.MaxRHP)
+	} else {
+		fmt.Fprintln(w, "stable      no stable node in the window")
+	}
+	if st.Marginal > 0 {
+		fmt.Fprintf(w, "marginal    %d nodes with a root on the imaginary axis and none to its right: on an edge, not stable (drawn violet)\n", st.Marginal)
 	}
 	fmt.Fprintf(w, "edges       %d complex-pair, %d real-root, %d through-infinity curves\n",
 		res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Infinite])

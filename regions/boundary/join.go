@@ -3,6 +3,7 @@ package boundary
 import (
 	"gainscape/regions/grid"
 	"gainscape/regions/isoline"
+	"gainscape/regions/stability"
 )
 
 // join links refined crossings into polylines by marching squares
@@ -21,12 +22,41 @@ func join(m *grid.Map, edges []edgeKey, found []crossing) []Curve {
 		}
 		return -1
 	}
-	// A saddle joins bottom-left and top-right when those two corners
-	// share a count and the bottom-right one differs.
-	saddle := func(i, j int) bool {
-		return m.Count(i, j) == m.Count(i+1, j+1) && m.Count(i+1, j) != m.Count(i, j)
+	// A cell crossed on three edges pairs the two of one kind (a complex
+	// edge meeting a real edge that runs along marginal nodes), or else
+	// the first two. A saddle whose crossings pair by kind across the cell
+	// is joined that way; otherwise it joins bottom-left and top-right
+	// when those two corners share a count and the bottom-right one
+	// differs.
+	resolve := func(i, j int, at [4]int) [][2]int {
+		var hit []int
+		for _, c := range at {
+			if c >= 0 {
+				hit = append(hit, c)
+			}
+		}
+		kind := func(c int) stability.Kind { return found[c].kind }
+		if len(hit) == 3 {
+			for _, p := range [][2]int{{0, 1}, {1, 2}, {0, 2}} {
+				a, b := hit[p[0]], hit[p[1]]
+				other := hit[3-p[0]-p[1]]
+				if kind(a) == kind(b) && kind(other) != kind(a) {
+					return [][2]int{{a, b}}
+				}
+			}
+			return [][2]int{{hit[0], hit[1]}}
+		}
+		b, r, t, l := kind(at[0]), kind(at[1]), kind(at[2]), kind(at[3])
+		pairs := func(p, q, u, v stability.Kind) bool { return p == q && u == v }
+		switch {
+		case pairs(b, t, l, r) && !pairs(b, r, t, l) && !pairs(b, l, r, t):
+			return isoline.Saddle(at, isoline.Across)
+		case m.Count(i, j) == m.Count(i+1, j+1) && m.Count(i+1, j) != m.Count(i, j):
+			return isoline.Saddle(at, isoline.JoinDiagonal)
+		}
+		return isoline.Saddle(at, isoline.CutDiagonal)
 	}
-	segs := isoline.Segments(m.XAxis.N, m.YAxis.N, nil, crossingAt, saddle)
+	segs := isoline.Segments(m.XAxis.N, m.YAxis.N, nil, crossingAt, resolve)
 	var curves []Curve
 	for _, chain := range isoline.Chain(len(edges), segs) {
 		curves = append(curves, split(chain, found)...)

@@ -44,7 +44,11 @@ type Region struct {
 	Y          plane.Axis         `json:"y"`
 	// RHP[j][i] is the right-half-plane root count at (x_i, y_j), row 0
 	// at y = min; -1 where the test could not decide.
-	RHP        [][]int    `json:"rhp"`
+	RHP [][]int `json:"rhp"`
+	// Axis[j][i] is the number of roots on the imaginary axis at the same
+	// node (s = 0 and roots gone to infinity included): a node with rhp 0
+	// and axis above 0 is marginal, on an edge, not stable.
+	Axis       [][]int    `json:"axis"`
 	Boundaries []Boundary `json:"boundaries"`
 	Summary    Summary    `json:"summary"`
 	// Extra holds the overlays and the marked and found points, when any
@@ -63,6 +67,7 @@ type Boundary struct {
 type Summary struct {
 	Nodes          int     `json:"nodes"`
 	StableNodes    int     `json:"stable_nodes"`
+	MarginalNodes  int     `json:"marginal_nodes"`
 	UndecidedNodes int     `json:"undecided_nodes"`
 	StableFraction float64 `json:"stable_fraction"`
 	// StableBox is [xmin, xmax, ymin, ymax] of the stable nodes, or null.

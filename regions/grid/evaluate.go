@@ -21,7 +21,7 @@ type Options struct {
 // Rows are handed to the workers one at a time; each node is computed
 // independently, so the map does not depend on the number of workers or
 // on scheduling. A node exactly on a boundary gets the count of the
-// strictly unstable roots. It returns ctx.Err() if the context is
+// strictly unstable roots and a boundary count. It returns ctx.Err() if the context is
 // cancelled, with no map.
 func Evaluate(ctx context.Context, s plane.Setup, opt Options) (*Map, error) {
 	m := NewMap(s.X, s.Y)
@@ -32,10 +32,8 @@ func Evaluate(ctx context.Context, s plane.Setup, opt Options) (*Map, error) {
 	newScratch := func() scratch { return scratch{s.NewCounter(), s.NewScratch()} }
 	err := pool.Each(ctx, s.Y.N, opt.Workers, opt.Progress, newScratch, func(w scratch, j int) {
 		y := s.Y.At(j)
-		row := m.RHP[j*s.X.N : (j+1)*s.X.N]
-		for i := range row {
-			v := w.counter.Count(s.Function(w.buf, s.X.At(i), y))
-			row[i] = int8(min(v.Unstable, 127))
+		for i := 0; i < s.X.N; i++ {
+			m.Set(j*s.X.N+i, w.counter.Count(s.Function(w.buf, s.X.At(i), y)))
 		}
 	})
 	if err != nil {

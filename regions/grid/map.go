@@ -1,6 +1,6 @@
-// Package grid evaluates the sign-array test on every node of a
-// two-parameter grid, in parallel, and holds the resulting map of
-// right-half-plane root counts.
+// Package grid evaluates the stability test on every node of a
+// two-parameter grid, in parallel, and holds the resulting map of root
+// counts: on the unstable side, and on the stability boundary.
 package grid
 
 import (
@@ -13,21 +13,59 @@ import (
 // its meaning).
 const Undecided = stability.Undecided
 
-// Map is the right-half-plane root count of the closed loop at every node
-// of a grid. RHP[j*XAxis.N+i] belongs to node (XAxis.At(i), YAxis.At(j));
-// row j = 0 is at YAxis.Min. It satisfies gonum/plot's plotter.GridXYZ.
+// Map holds the root counts of the closed loop at every node of a grid.
+// RHP[k] is the number of roots strictly on the unstable side (the open
+// right half plane), Undecided where the test could not tell, and Axis[k]
+// the number on the stability boundary (the imaginary axis, s = 0 and
+// roots gone to infinity included); node k = j·XAxis.N + i is
+// (XAxis.At(i), YAxis.At(j)), row j = 0 at YAxis.Min. A node is stable
+// only when both counts are zero; a node with no unstable root but one on
+// the boundary is marginal, on an edge, and is neither drawn nor used as
+// stable. Map satisfies gonum/plot's plotter.GridXYZ with the RHP counts.
 type Map struct {
 	XAxis, YAxis plane.Axis
-	RHP          []int8
+	RHP, Axis    []int8
 }
 
 // NewMap returns a map of the given axes with every count zero.
 func NewMap(x, y plane.Axis) *Map {
-	return &Map{XAxis: x, YAxis: y, RHP: make([]int8, x.N*y.N)}
+	return &Map{XAxis: x, YAxis: y, RHP: make([]int8, x.N*y.N), Axis: make([]int8, x.N*y.N)}
 }
 
-// Count returns the count at node (i, j).
+// Set records the verdict of node k.
+func (m *Map) Set(k int, v stability.Verdict) {
+	if v.Unstable < 0 {
+		m.RHP[k], m.Axis[k] = Undecided, 0
+		return
+	}
+	m.RHP[k] = int8(min(v.Unstable, 127))
+	m.Axis[k] = int8(min(v.Boundary+v.Infinite, 127))
+}
+
+// Count returns the unstable count at node (i, j).
 func (m *Map) Count(i, j int) int { return int(m.RHP[j*m.XAxis.N+i]) }
+
+// OnAxis returns the boundary count at node (i, j).
+func (m *Map) OnAxis(i, j int) int { return int(m.Axis[j*m.XAxis.N+i]) }
+
+// ClassAt returns the class of node k.
+func (m *Map) ClassAt(k int) stability.Class {
+	switch {
+	case m.RHP[k] < 0:
+		return stability.ClassUndecided
+	case m.RHP[k] > 0:
+		return stability.ClassUnstable
+	case m.Axis[k] > 0:
+		return stability.ClassMarginal
+	}
+	return stability.ClassStable
+}
+
+// Class returns the class of node (i, j).
+func (m *Map) Class(i, j int) stability.Class { return m.ClassAt(j*m.XAxis.N + i) }
+
+// StableAt reports whether node k is stable.
+func (m *Map) StableAt(k int) bool { return m.RHP[k] == 0 && m.Axis[k] == 0 }
 
 // Dims returns the number of columns (x nodes) and rows (y nodes).
 func (m *Map) Dims() (c, r int) { return m.XAxis.N, m.YAxis.N }
@@ -41,22 +79,29 @@ func (m *Map) X(c int) float64 { return m.XAxis.At(c) }
 // Y returns the y value of row r.
 func (m *Map) Y(r int) float64 { return m.YAxis.At(r) }
 
-// Rows returns the counts as rows, row 0 at YAxis.Min, for export.
-func (m *Map) Rows() [][]int {
-	out := make([][]int, m.YAxis.N)
+// Rows returns the unstable counts as rows, row 0 at YAxis.Min, for
+// export.
+func (m *Map) Rows() [][]int { return rowsOf(m.RHP, m.XAxis.N, m.YAxis.N) }
+
+// AxisRows returns the boundary counts as rows, laid out as Rows.
+func (m *Map) AxisRows() [][]int { return rowsOf(m.Axis, m.XAxis.N, m.YAxis.N) }
+
+func rowsOf(v []int8, nx, ny int) [][]int {
+	out := make([][]int, ny)
 	for j := range out {
-		row := make([]int, m.XAxis.N)
+		row := make([]int, nx)
 		for i := range row {
-			row[i] = m.Count(i, j)
+			row[i] = int(v[j*nx+i])
 		}
 		out[j] = row
 	}
 	return out
 }
 
-// Stats summarises a map.
+// Stats summarises a map. Stable counts stable nodes only; Marginal the
+// nodes on an edge (no unstable root, one on the boundary).
 type Stats struct {
-	Nodes, Stable, Undecided int
+	Nodes, Stable, Marginal, Undecided int
 	// Bounding box of the stable nodes; valid only if Stable > 0.
 	XMin, XMax, YMin, YMax float64
 	MaxRHP                 int
@@ -80,10 +125,12 @@ func (m *Map) Stats() Stats {
 			if c > s.MaxRHP {
 				s.MaxRHP = c
 			}
-			switch {
-			case c == Undecided:
+			switch m.Class(i, j) {
+			case stability.ClassUndecided:
 				s.Undecided++
-			case c == 0:
+			case stability.ClassMarginal:
+				s.Marginal++
+			case stability.ClassStable:
 				s.Stable++
 				x, y := m.XAxis.At(i), m.YAxis.At(j)
 				if first {

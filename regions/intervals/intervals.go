@@ -106,10 +106,12 @@ func (s *search) stable(k float64) bool {
 	return s.counter.Count(stability.Function{P: s.line.at(s.p, k)}).Stable()
 }
 
-// classify names the crossing at k, which lies on a boundary to within
-// rounding.
-func (s *search) classify(k float64) candidate {
-	cr := s.test.Classify(stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), k)})
+// classify names the crossing between a and b, which bracket a boundary
+// to within rounding (or are one point on it).
+func (s *search) classify(a, b float64) candidate {
+	fa := stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), a)}
+	fb := stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), b)}
+	cr := s.test.Classify(fa, fb)
 	return candidate{kind: cr.Kind, omega: cr.Omega}
 }
 
@@ -188,14 +190,15 @@ func (s *search) run() []Interval {
 
 // windowEnd describes an interval end at a window end k: a boundary of the
 // loop if a candidate lies there or the loop is not stable at k itself
-// (then the sign array at k names the crossing), the window otherwise.
+// (then the roots on the boundary at k name the crossing), the window
+// otherwise.
 func (s *search) windowEnd(k float64, at []candidate) (float64, stability.Kind, float64) {
 	if len(at) > 0 {
 		c := s.pick(at, k)
 		return k, c.kind, c.omega
 	}
 	if !s.stable(k) {
-		c := s.classify(k)
+		c := s.classify(k, k)
 		return k, c.kind, c.omega
 	}
 	return k, Window, math.NaN()
@@ -256,7 +259,8 @@ func (s *search) pick(cs []candidate, k float64) candidate {
 	if same {
 		return cs[0]
 	}
-	want := s.classify(k)
+	d := 4 * s.tol(k)
+	want := s.classify(k-d, k+d)
 	best := cs[0]
 	for _, c := range cs {
 		if c.kind == want.kind {

@@ -80,9 +80,12 @@ func Trace(x, y plane.Axis, values []float64, level float64) []Line {
 	}
 	// A saddle joins the corners that agree with the centre, the mean of
 	// the four corners.
-	saddle := func(i, j int) bool {
+	saddle := func(i, j int, at [4]int) [][2]int {
 		centreAbove := (z(i, j)+z(i+1, j)+z(i+1, j+1)+z(i, j+1))/4 >= level
-		return centreAbove == (z(i, j) >= level)
+		if centreAbove == (z(i, j) >= level) {
+			return Saddle(at, JoinDiagonal)
+		}
+		return Saddle(at, CutDiagonal)
 	}
 	segs := Segments(x.N, y.N, inCell, crossing, saddle)
 	var lines []Line

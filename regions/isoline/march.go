@@ -12,45 +12,65 @@ package isoline
 // crossing(i, j, horiz) returns the number of the crossing on the grid
 // edge from node (i, j) to node (i+1, j) when horiz, or to node (i, j+1)
 // otherwise, or −1 if that edge is not crossed. A cell crossed on two
-// edges gets one segment between them (on three, which a caller whose
-// nodes can be unknown may produce, between the first two in the order
-// bottom, right, top, left). A cell crossed on all four edges is a
-// saddle: saddle(i, j) true joins its lower-left and upper-right corners
-// through the centre, cutting off the other two corners with the segments
-// bottom–right and top–left; false joins the other diagonal, with the
-// segments bottom–left and right–top.
+// edges gets one segment between them. A cell crossed on more edges is
+// resolved by resolve(i, j, at), with at its crossings in the order
+// bottom, right, top, left (−1 where none), which returns its segments:
+// Saddle gives the usual pairings of a cell crossed on all four.
 //
 // This is the one marching-squares routine: the iso-lines of overlays and
 // the stability edges of maps both use it.
-func Segments(nx, ny int, inCell func(i, j int) bool, crossing func(i, j int, horiz bool) int, saddle func(i, j int) bool) [][2]int {
+func Segments(nx, ny int, inCell func(i, j int) bool, crossing func(i, j int, horiz bool) int, resolve func(i, j int, at [4]int) [][2]int) [][2]int {
 	var segs [][2]int
 	for j := 0; j+1 < ny; j++ {
 		for i := 0; i+1 < nx; i++ {
 			if inCell != nil && !inCell(i, j) {
 				continue
 			}
-			// Edges bottom, right, top, left.
 			at := [4]int{crossing(i, j, true), crossing(i+1, j, false), crossing(i, j+1, true), crossing(i, j, false)}
-			var hit [4]int
-			n := 0
+			var hit []int
 			for _, c := range at {
 				if c >= 0 {
-					hit[n] = c
-					n++
+					hit = append(hit, c)
 				}
 			}
 			switch {
-			case n == 2 || n == 3:
+			case len(hit) == 2:
 				segs = append(segs, [2]int{hit[0], hit[1]})
-			case n == 4 && saddle(i, j):
-				segs = append(segs, [2]int{at[0], at[1]}, [2]int{at[2], at[3]})
-			case n == 4:
-				segs = append(segs, [2]int{at[0], at[3]}, [2]int{at[1], at[2]})
+			case len(hit) > 2:
+				segs = append(segs, resolve(i, j, at)...)
 			}
 		}
 	}
 	return segs
 }
+
+// Saddle returns the segments of a cell crossed on all four edges (at:
+// bottom, right, top, left) for pairing p: JoinDiagonal joins the
+// lower-left and upper-right corners through the centre, cutting off the
+// other two corners with the segments bottom–right and top–left;
+// CutDiagonal joins the other diagonal, with the segments bottom–left and
+// right–top; Across gives bottom–top and left–right, for crossings that
+// lie on the cell's corners, where the two segments touch rather than
+// cross.
+func Saddle(at [4]int, p Pairing) [][2]int {
+	switch p {
+	case JoinDiagonal:
+		return [][2]int{{at[0], at[1]}, {at[2], at[3]}}
+	case CutDiagonal:
+		return [][2]int{{at[0], at[3]}, {at[1], at[2]}}
+	}
+	return [][2]int{{at[0], at[2]}, {at[3], at[1]}}
+}
+
+// Pairing says how a saddle cell joins its four crossings (see Segments).
+type Pairing int8
+
+// The pairings of a saddle cell.
+const (
+	JoinDiagonal Pairing = iota
+	CutDiagonal
+	Across
+)
 
 // Chain joins segments between crossings numbered 0 … n−1 into polylines
 // of crossing numbers. Every crossing ends at most two segments (a grid

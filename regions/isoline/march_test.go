@@ -44,13 +44,17 @@ func TestSegmentsSaddle(t *testing.T) {
 		}
 		return 3
 	}
-	join := Segments(2, 2, nil, crossing, func(int, int) bool { return true })
+	join := Segments(2, 2, nil, crossing, func(_, _ int, at [4]int) [][2]int { return Saddle(at, JoinDiagonal) })
 	if want := [][2]int{{0, 1}, {2, 3}}; !reflect.DeepEqual(join, want) {
 		t.Errorf("joined diagonal: %v; want %v", join, want)
 	}
-	cut := Segments(2, 2, nil, crossing, func(int, int) bool { return false })
+	cut := Segments(2, 2, nil, crossing, func(_, _ int, at [4]int) [][2]int { return Saddle(at, CutDiagonal) })
 	if want := [][2]int{{0, 3}, {1, 2}}; !reflect.DeepEqual(cut, want) {
 		t.Errorf("other diagonal: %v; want %v", cut, want)
+	}
+	across := Segments(2, 2, nil, crossing, func(_, _ int, at [4]int) [][2]int { return Saddle(at, Across) })
+	if want := [][2]int{{0, 2}, {3, 1}}; !reflect.DeepEqual(across, want) {
+		t.Errorf("across: %v; want %v", across, want)
 	}
 	if none := Segments(2, 2, func(int, int) bool { return false }, crossing, nil); len(none) != 0 {
 		t.Errorf("cell left out gave %v", none)

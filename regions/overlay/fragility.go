@@ -123,7 +123,7 @@ func (f frame) nearest(curves []boundary.Curve) Nearest {
 	}
 	if best.Distance == 0 {
 		best.X, best.Y = f.x0, f.y0
-		return f.classify(best)
+		return f.classify(best, best.X, best.Y)
 	}
 	theta := math.Atan2(bv, bu)
 	r := f.ray(theta, best.Distance)
@@ -131,7 +131,7 @@ func (f frame) nearest(curves []boundary.Curve) Nearest {
 		// The count does not change near the polyline point (a curve the
 		// count cannot see, such as a touching pair): keep the chord point.
 		best.X, best.Y = f.x0+f.sx*bu, f.y0+f.sy*bv
-		return f.classify(best)
+		return f.classify(best, best.X, best.Y)
 	}
 	// Golden-section search on the direction, within the angle the found
 	// segment subtends (at most 45° either way).
@@ -158,7 +158,21 @@ func (f frame) nearest(curves []boundary.Curve) Nearest {
 	}
 	best.Distance = r
 	best.X, best.Y = f.x0+f.sx*r*math.Cos(theta), f.y0+f.sy*r*math.Sin(theta)
-	return f.classify(best)
+	far := f.across(theta, r)
+	return f.classify(best, f.x0+f.sx*far*math.Cos(theta), f.y0+f.sy*far*math.Sin(theta))
+}
+
+// across returns a distance just beyond r along theta where the count
+// differs from the design point's: r plus the smallest of a growing
+// series of steps that crosses, so that r and it bracket the edge.
+func (f frame) across(theta, r float64) float64 {
+	cu, cv := math.Cos(theta), math.Sin(theta)
+	for step := 2 * rayTol * r; step < r; step *= 4 {
+		if t := r + step; f.pr.count(f.x0+f.sx*t*cu, f.y0+f.sy*t*cv) != f.count0 {
+			return t
+		}
+	}
+	return r
 }
 
 // rayTol is the bisection width along a ray relative to the distance,
@@ -202,10 +216,13 @@ func (f frame) ray(theta, d float64) float64 {
 	return lo
 }
 
-// classify fills the kind and frequency of n from the stability test at
-// its point.
-func (f frame) classify(n Nearest) Nearest {
-	cr := f.pr.setup.Test().Classify(f.pr.function(n.X, n.Y))
+// classify fills the kind and frequency of n from what crosses between
+// its point and (x, y), just across the edge (the same point when n lies
+// on it).
+func (f frame) classify(n Nearest, x, y float64) Nearest {
+	a := f.pr.function(n.X, n.Y)
+	a.P = a.P.Clone()
+	cr := f.pr.setup.Test().Classify(a, f.pr.function(x, y))
 	n.Kind, n.Omega = cr.Kind, cr.Omega
 	return n
 }

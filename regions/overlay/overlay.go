@@ -72,9 +72,8 @@ func (g *Grids) At(i, j int) int { return j*g.XAxis.N + i }
 // array path allocates nothing per node. The eigenvalue path allocates a
 // few small arrays per node inside gonum's QR iteration (Dlahqr keeps a
 // 3-element array on the heap, once per iteration); the Sensitivity
-// evaluator may allocate too. A node exactly on a boundary (a root on the
-// imaginary axis that the map's count does not include) gets a decay rate
-// of zero within rounding.
+// evaluator may allocate too. Only stable nodes get values: a marginal
+// node, with a root on the boundary, is not graded.
 func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Grids, error) {
 	checkMap(s, m)
 	n := s.X.N * s.Y.N
@@ -89,7 +88,7 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 		y := s.Y.At(j)
 		for i := 0; i < s.X.N; i++ {
 			k := j*s.X.N + i
-			if m.RHP[k] != 0 {
+			if !m.StableAt(k) {
 				continue
 			}
 			x := s.X.At(i)

@@ -63,9 +63,7 @@ func NewSetup(l loop.Loop, x, y Axis) (Setup, error) {
 		return Setup{}, err
 	}
 	s := Setup{Loop: l, X: x, Y: y, XIndex: xi, YIndex: yi, test: l.Test()}
-	s.Char = build(l, xi, yi, func(l loop.Loop) poly.Poly { return l.Characteristic() })
-	s.OpenNum = build(l, xi, yi, func(l loop.Loop) poly.Poly { n, _ := l.Open(); return n })
-	s.OpenDen = build(l, xi, yi, func(l loop.Loop) poly.Poly { _, d := l.Open(); return d })
+	s.OpenNum, s.OpenDen, s.Char = build(l, xi, yi)
 	return s, nil
 }
 
@@ -111,25 +109,39 @@ type Pencil struct {
 	A, B, C, E poly.Poly
 }
 
-// build writes quantity(l) as a Pencil over parameters xi and yi.
-// Because every coefficient of a controller is affine in each parameter
-// alone (the family.Form contract), so are the characteristic polynomial
-// and the open loop, and their values at the four corners (0,0), (1,0),
-// (0,1), (1,1) determine A, B, C and E. With xi = yi the result is a line
-// A + y·C along one parameter.
-func build(l loop.Loop, xi, yi int, quantity func(loop.Loop) poly.Poly) Pencil {
-	at := func(x, y float64) poly.Poly { return quantity(l.With(xi, x, yi, y)) }
-	p00, p10, p01, p11 := at(0, 0), at(1, 0), at(0, 1), at(1, 1)
-	n := max(len(p00), len(p10), len(p01), len(p11))
-	pad := func(p poly.Poly) poly.Poly { q := make(poly.Poly, n); copy(q, p); return q }
-	p00, p10, p01, p11 = pad(p00), pad(p10), pad(p01), pad(p11)
-	pc := Pencil{A: p00, B: make(poly.Poly, n), C: make(poly.Poly, n), E: make(poly.Poly, n)}
-	for k := 0; k < n; k++ {
-		pc.B[k] = p10[k] - p00[k]
-		pc.C[k] = p01[k] - p00[k]
-		pc.E[k] = p11[k] - p10[k] - p01[k] + p00[k]
+// build writes the open loop Nc·N, Dc·D and the characteristic
+// polynomial Dc·D + Nc·N of l as Pencils over parameters xi and yi. Every
+// coefficient of a controller is a multi-affine form of its parameters
+// (family.Form), so family.Split writes Nc and Dc exactly as
+// A + x·B + y·C + x·y·E, each term multiplied only by the fixed values it
+// contains; each part is then multiplied by the plant polynomial, so no
+// coefficient is formed by differencing evaluations and a small plant
+// gain keeps all its digits. With xi = yi the result is a line A + x·B
+// along one parameter (C and E are zero).
+func build(l loop.Loop, xi, yi int) (num, den, char Pencil) {
+	tf := l.Family.Transfer()
+	na, nb, nc, ne := family.Split(tf.Num, l.Values, xi, yi)
+	da, db, dc, de := family.Split(tf.Den, l.Values, xi, yi)
+	times := func(a, b, c, e, plant poly.Poly) Pencil {
+		return Pencil{A: poly.Mul(a, plant), B: poly.Mul(b, plant), C: poly.Mul(c, plant), E: poly.Mul(e, plant)}
 	}
-	return pc
+	num = times(na, nb, nc, ne, l.Plant.Num)
+	den = times(da, db, dc, de, l.Plant.Den)
+	char = Pencil{A: poly.Add(den.A, num.A), B: poly.Add(den.B, num.B), C: poly.Add(den.C, num.C), E: poly.Add(den.E, num.E)}
+	return num.trimmed(), den.trimmed(), char.trimmed()
+}
+
+// trimmed pads the four parts to one length and drops top coefficients
+// that are exactly zero in all four: a structure that lacks a term (an
+// ideal derivative) simply has a lower degree.
+func (p Pencil) trimmed() Pencil {
+	n := max(len(p.A), len(p.B), len(p.C), len(p.E))
+	pad := func(q poly.Poly) poly.Poly { r := make(poly.Poly, n); copy(r, q); return r }
+	p = Pencil{A: pad(p.A), B: pad(p.B), C: pad(p.C), E: pad(p.E)}
+	for n > 0 && p.A[n-1] == 0 && p.B[n-1] == 0 && p.C[n-1] == 0 && p.E[n-1] == 0 {
+		n--
+	}
+	return Pencil{A: p.A[:n], B: p.B[:n], C: p.C[:n], E: p.E[:n]}
 }
 
 // Line is the characteristic polynomial along one parameter k with every
@@ -139,10 +151,10 @@ type Line struct {
 }
 
 // NewLine returns the characteristic polynomial of l along parameter
-// param, built as the setups' pencils are.
+// param, formed exactly as the setups' pencils are.
 func NewLine(l loop.Loop, param int) Line {
-	pc := build(l, param, param, func(l loop.Loop) poly.Poly { return l.Characteristic() })
-	return Line{A: pc.A, B: pc.C}
+	_, _, pc := build(l, param, param)
+	return Line{A: pc.A, B: pc.B}
 }
 
 // Len returns the number of coefficients of the pencil's polynomials.

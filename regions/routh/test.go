@@ -1,6 +1,8 @@
 package routh
 
 import (
+	"math"
+	"math/cmplx"
 	"strconv"
 
 	"gainscape/regions/poly"
@@ -48,16 +50,109 @@ func (r Report) Verdict() stability.Verdict {
 	return stability.Verdict{Unstable: r.RHP, Boundary: r.JW, Infinite: r.DegreeDrop}
 }
 
-// Classify implements stability.Test with ClassifyCrossing.
-func (Test) Classify(f stability.Function) stability.Crossing {
-	cr := ClassifyCrossing(f.P)
-	switch cr.Vanishing {
-	case "constant":
-		return stability.Crossing{Kind: stability.Real, Omega: 0}
-	case "leading":
-		return stability.Crossing{Kind: stability.Infinite, Omega: cr.Omega}
+// Classify implements stability.Test by what changes between a and b,
+// the D-partition classification (Yu. I. Neimark, Avtomatika i
+// Telemekhanika 9(3), 1948): a real root crosses through s = 0 exactly
+// when the constant coefficient changes sign, a root passes through
+// infinity exactly when the leading coefficient does, and otherwise the
+// roots that cross form a complex pair at ±jω, whose ω is read from the
+// pair of the midway polynomial nearest the axis, polished by Newton's
+// method. A coefficient that is zero on both sides (the constant term all
+// along ki = 0, say) has a root that stays on the axis, which is not what
+// crosses. Sign changes of coefficients formed exactly cannot be made up
+// by rounding, so the kind does not depend on how the loop is scaled.
+// When a and b are one point on the edge, its roots on the axis decide.
+func (Test) Classify(a, b stability.Function) stability.Crossing {
+	p, q := a.P, b.P
+	n := max(len(p), len(q))
+	at := func(c poly.Poly, k int) float64 {
+		if k < len(c) {
+			return c[k]
+		}
+		return 0
 	}
-	return stability.Crossing{Kind: stability.Complex, Omega: cr.Omega}
+	mid := make(poly.Poly, n)
+	for k := range mid {
+		mid[k] = 0.5 * (at(p, k) + at(q, k))
+	}
+	changes := func(k int) bool {
+		u, v := at(p, k), at(q, k)
+		return u*v < 0 || (u == 0) != (v == 0)
+	}
+	top := n - 1
+	for top > 0 && at(p, top) == 0 && at(q, top) == 0 {
+		top--
+	}
+	switch {
+	case changes(0):
+		return stability.Crossing{Kind: stability.Real, Omega: 0}
+	case changes(top):
+		return stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
+	case same(p, q):
+		return onAxis(mid)
+	}
+	if w, ok := pairFrequency(mid); ok {
+		return stability.Crossing{Kind: stability.Complex, Omega: w}
+	}
+	return onAxis(mid)
+}
+
+// same reports whether p and q have the same coefficients.
+func same(p, q poly.Poly) bool {
+	if len(p) != len(q) {
+		return false
+	}
+	for k := range p {
+		if p[k] != q[k] {
+			return false
+		}
+	}
+	return true
+}
+
+// pairFrequency returns ω of the complex root pair of p nearest the
+// imaginary axis (smallest |Re r|/|r|), polished by Newton's method on p.
+func pairFrequency(p poly.Poly) (float64, bool) {
+	roots, err := p.Trim(0).Roots()
+	if err != nil {
+		return 0, false
+	}
+	best, ok := math.Inf(1), false
+	var pick complex128
+	for _, r := range roots {
+		if imag(r) <= 0 {
+			continue
+		}
+		if d := math.Abs(real(r)) / cmplx.Abs(r); d < best {
+			best, pick, ok = d, r, true
+		}
+	}
+	if !ok {
+		return 0, false
+	}
+	return math.Abs(imag(p.Polish(pick))), true
+}
+
+// onAxis classifies a polynomial that lies on an edge by its own roots
+// on the boundary: a pair on the imaginary axis first, then a root at
+// s = 0, then a degree drop.
+func onAxis(p poly.Poly) stability.Crossing {
+	r := Analyze(p)
+	for _, w := range r.Omegas {
+		if w > 0 {
+			return stability.Crossing{Kind: stability.Complex, Omega: w}
+		}
+	}
+	switch {
+	case r.ZeroRoots > 0 || len(r.Omegas) > 0:
+		return stability.Crossing{Kind: stability.Real, Omega: 0}
+	case r.DegreeDrop > 0:
+		return stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
+	}
+	if w, ok := pairFrequency(p); ok {
+		return stability.Crossing{Kind: stability.Complex, Omega: w}
+	}
+	return stability.Crossing{Kind: stability.Real, Omega: 0}
 }
 
 // Report implements stability.Test with Analyze.

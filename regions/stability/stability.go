@@ -110,10 +110,13 @@ type Test interface {
 	// NewCounter returns a Counter for functions whose polynomials have
 	// at most n coefficients.
 	NewCounter(n int) Counter
-	// Classify says how the roots of f cross the boundary, f being a
-	// characteristic function that lies on an edge of a stability map to
-	// within rounding (found by bisection between two verdicts).
-	Classify(f Function) Crossing
+	// Classify says which roots cross the boundary between a and b, two
+	// characteristic functions on either side of an edge of a stability
+	// map and within rounding of it (the two ends of a bisection), and at
+	// which frequency. a and b may be the same function, a point on the
+	// edge itself (a marginal node); then the roots on the boundary there
+	// decide.
+	Classify(a, b Function) Crossing
 	// Report is the full verdict for one point, with the working of the
 	// test as a person would write it down.
 	Report(f Function) Report

@@ -29,7 +29,7 @@ func ExampleMapJob_Run() {
 	}
 	lo, hi, _ := res.OmegaRange()
 	fmt.Printf("stable %.0f%% of the window; ω on the complex-pair edge from %.2f to %.2f rad/s\n", 100*res.Stats.StableFraction(), lo, hi)
-	// Output: stable 54% of the window; ω on the complex-pair edge from 0.58 to 1.73 rad/s
+	// Output: stable 52% of the window; ω on the complex-pair edge from 0.58 to 1.73 rad/s
 }
 
 // Probing P control of 1/(s+1)³ at kp = 2: gain margin 4 at ω = √3.

@@ -55,6 +55,13 @@ func (ls LoopSpec) Build() (loop.Loop, error) {
 	default:
 		return loop.Loop{}, inputErr("--plant", "loop.plant", "", "give the plant as --plant EXPR, or as both --num and --den")
 	}
+	if pn.Degree() < 0 {
+		flag, key := "--plant", "loop.plant"
+		if ls.Plant == "" {
+			flag, key = "--num", "loop.numerator"
+		}
+		return loop.Loop{}, inputErr(flag, key, "", "the plant numerator is zero: the loop would have no feedback")
+	}
 	fam, err := family.Lookup(ls.Controller)
 	if err != nil {
 		return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}

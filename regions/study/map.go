@@ -132,7 +132,7 @@ func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 func (r *MapResult) Data() *export.Region {
 	doc := &export.Region{
 		Plant: r.Plant, Controller: r.Controller, Fixed: map[string]float64{},
-		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Boundaries: []export.Boundary{},
+		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Axis: r.Map.AxisRows(), Boundaries: []export.Boundary{},
 	}
 	for _, v := range r.Fixed {
 		doc.Fixed[v.Name] = v.Value
@@ -145,7 +145,7 @@ func (r *MapResult) Data() *export.Region {
 		doc.Boundaries = append(doc.Boundaries, b)
 	}
 	st := r.Stats
-	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
+	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, MarginalNodes: st.Marginal, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
 	if st.Stable > 0 {
 		doc.Summary.StableBox = &[4]float64{st.XMin, st.XMax, st.YMin, st.YMax}
 	}
