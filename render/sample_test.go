@@ -101,8 +101,8 @@ func sampleCurves() []boundary.Curve {
 
 // contourOf traces the iso-lines of field at levels, as the caller of
 // the package does.
-func contourOf(field *Field, levels []float64, name string) ContourSet {
-	cs := ContourSet{Levels: levels, Name: name}
+func contourOf(field *Field, levels []float64, name string, look int) ContourSet {
+	cs := ContourSet{Levels: levels, Name: name, Look: look}
 	for _, level := range levels {
 		cs.Lines = append(cs.Lines, isoline.Trace(field.XAxis, field.YAxis, field.Values, level))
 	}
@@ -152,7 +152,7 @@ func shadedFigureOn(xa, ya plane.Axis) Figure {
 	f.Map = sampleMapOn(xa, ya)
 	f.Shade = sampleFieldOn(xa, ya, "decay rate σ (1/s)", decayOfRadius)
 	ms := sampleFieldOn(xa, ya, "Ms", msOfRadius)
-	f.Contours = []ContourSet{contourOf(ms, []float64{1.8, 3}, "Ms")}
+	f.Contours = []ContourSet{contourOf(ms, []float64{1.8, 3}, "Ms", 0)}
 	return f
 }
 
@@ -186,11 +186,13 @@ func isoFigure() Figure {
 			damping.Values[j*sampleX.N+i], fourth.Values[j*sampleX.N+i] = z, q
 		}
 	}
+	ms := f.Contours[0]
+	ms.Look = 2
 	f.Contours = []ContourSet{
-		contourOf(f.Shade, []float64{0.3, 0.6}, "σ"),
-		contourOf(damping, []float64{0.4, 0.7}, "ζ"),
-		f.Contours[0],
-		contourOf(fourth, []float64{0.4}, "q"),
+		contourOf(f.Shade, []float64{0.3, 0.6}, "σ", 0),
+		contourOf(damping, []float64{0.4, 0.7}, "ζ", 1),
+		ms,
+		contourOf(fourth, []float64{0.4}, "q", 3),
 	}
 	return f
 }
