@@ -118,8 +118,8 @@ func Analyze(p poly.Poly) Report {
 	// first (s = ρ·t), which changes no sign and keeps the array clear of
 	// overflow and of underflow into subnormal numbers.
 	rho := 1.0
-	if b, logRho, ok := balance(q); ok {
-		q, rho = b, math.Exp(logRho)
+	if b, r, ok := balance(q); ok {
+		q, rho = b, r
 	}
 	qScales := balancedScales(q)
 
@@ -287,27 +287,18 @@ func Analyze(p poly.Poly) Report {
 // rest on entries judged zero, which may be true zeros (an imaginary-axis
 // pair, a structural cancellation) or tiny values that the array, made
 // ill-conditioned by clustered or mirrored roots, cannot resolve. The
-// eigenvalues of the companion matrix tell the two apart. Roots within
-// axisTol of the imaginary axis are ambiguous to them, so the array's
-// count stands if it is one the eigenvalues allow: at least the roots
-// clearly in the right half plane, and with its imaginary-axis roots no
-// more than those plus the ambiguous ones. Otherwise, if no root is
-// ambiguous, the eigenvalues' count is taken; if some are, the report is
-// undecided.
+// eigenvalues of the companion matrix tell the two apart (rootSides):
+// roots within their rounding bound of the imaginary axis are ambiguous,
+// so the array's count stands if it is one the eigenvalues allow: at
+// least the roots certainly in the right half plane, and with its
+// imaginary-axis roots no more than those plus the ambiguous ones.
+// Otherwise, if no root is ambiguous, the eigenvalues' count is taken; if
+// some are, the report is undecided.
 func crossCheck(rep Report, q poly.Poly) Report {
-	roots, err := q.Roots()
-	if err != nil {
+	clear, near, ok := rootSides(q)
+	if !ok {
 		rep.Undecided, rep.Reason = true, "the eigenvalues could not be found to confirm the count"
 		return rep
-	}
-	clear, near := 0, 0
-	for _, r := range roots {
-		switch {
-		case math.Abs(real(r)) <= axisTol*cmplx.Abs(r):
-			near++
-		case real(r) > 0:
-			clear++
-		}
 	}
 	onAxis := rep.JW - rep.ZeroRoots
 	if rep.RHP >= clear && rep.RHP+onAxis <= clear+near {
@@ -321,38 +312,80 @@ func crossCheck(rep Report, q poly.Poly) Report {
 }
 
 // fromEigenvalues settles a polynomial whose sign array lost every digit of
-// an entry that decides the count. Such an entry is zero within the
-// rounding of the coefficients, so the polynomial is within rounding of one
-// whose array has a zero there; the count is the same for both unless a
-// root lies on or next to the imaginary axis. The eigenvalues of the
-// companion matrix say which: if every root keeps a relative distance of
-// more than axisTol from the axis, their count is taken (and the report
-// says so); otherwise the polynomial sits on a boundary within what double
-// precision resolves, and the report is undecided.
+// an entry that decides the count, or disagrees with the eigenvalues of
+// its companion matrix. If every root is farther from the imaginary axis
+// than rounding could move it (rootSides), their count is taken (and the
+// report says so); otherwise the polynomial sits on a boundary within what
+// double precision resolves, and the report is undecided.
 func fromEigenvalues(rep Report, q poly.Poly) Report {
 	rep.Rows = nil
-	roots, err := q.Roots()
-	if err != nil {
+	clear, near, ok := rootSides(q)
+	switch {
+	case !ok:
 		rep.Undecided, rep.Reason = true, "the sign array lost every digit of a deciding entry, and the eigenvalues could not be found"
 		return rep
+	case near > 0:
+		rep.Undecided = true
+		rep.Reason = "a root lies within rounding of the imaginary axis: the loop is on a stability boundary as far as double precision can tell"
+		return rep
 	}
-	rep.RHP = 0
-	for _, r := range roots {
-		if math.Abs(real(r)) <= axisTol*cmplx.Abs(r) {
-			rep.Undecided = true
-			rep.Reason = "a root lies within rounding of the imaginary axis: the loop is on a stability boundary as far as double precision can tell"
-			return rep
-		}
-		if real(r) > 0 {
-			rep.RHP++
-		}
-	}
+	rep.RHP = clear
 	rep.JW = rep.ZeroRoots
+	rep.Omegas = nil
 	if rep.ZeroRoots > 0 {
 		rep.Omegas = []float64{0}
 	}
+	rep.Aux, rep.UsedAux = nil, false
 	rep.FromEigenvalues = true
 	return rep
+}
+
+// coefficientUlps is the relative uncertainty, in units of the last place,
+// granted to each coefficient of a characteristic polynomial when judging
+// on which side of the axis a root lies: four times the input rounding
+// the fast path carries for each coefficient (inputUlps), so that a root
+// the rounding of the coefficients cannot move across the axis is
+// counted on its side, and only one it could is left undecided.
+const coefficientUlps = 4 * inputUlps
+
+// rootSides counts the roots of q that lie certainly in the open right
+// half plane (clear) and those that rounding of the coefficients could
+// move across the imaginary axis (near). Each root r from the eigenvalues
+// of the companion matrix is polished by Newton's method on q; a
+// perturbation of relative size η of every coefficient moves a simple
+// root by at most about η·Σ|q_k|·|r|^k / |q'(r)| (the first-order
+// condition of a polynomial root: J. H. Wilkinson, Rounding Errors in
+// Algebraic Processes, 1963, Ch. 2; N. J. Higham, Accuracy and Stability
+// of Numerical Algorithms, 2nd ed., Sec. 26.3), and a root whose real part
+// is no larger than that bound, plus the residual of the polished root,
+// could lie on either side. A multiple root has q'(r) = 0 and an unbounded
+// estimate, so it is near unless it is far from the axis in the bound's
+// own terms. ok is false if the eigenvalues could not be found.
+func rootSides(q poly.Poly) (clear, near int, ok bool) {
+	roots, err := q.Roots()
+	if err != nil {
+		return 0, 0, false
+	}
+	dq := q.Derivative()
+	eta := coefficientUlps * unit
+	for _, r := range roots {
+		r = q.Polish(r)
+		size := 0.0
+		pow := 1.0
+		m := cmplx.Abs(r)
+		for _, c := range q {
+			size += math.Abs(c) * pow
+			pow *= m
+		}
+		bound := (eta*size + cmplx.Abs(q.Eval(r))) / cmplx.Abs(dq.Eval(r))
+		switch {
+		case !(math.Abs(real(r)) > bound):
+			near++
+		case real(r) > 0:
+			clear++
+		}
+	}
+	return clear, near, true
 }
 
 // axisTol is how far, relative to its size, a root u of g(u) = A(s) with

@@ -57,15 +57,18 @@ func negligible(v, logScale float64) bool {
 // (and reported) with the coefficients the user's model gives.
 const balanceLimit = 30
 
-// balance returns q(ρ·t) divided by its largest coefficient, and ln ρ,
-// when q's roots or coefficients are far enough from unit size to risk
-// overflow or underflow in the array; ok is false otherwise.
-func balance(q []float64) (b []float64, logRho float64, ok bool) {
+// balance returns q(ρ·t) divided by a power of two near its largest
+// coefficient, and ρ, when q's roots or coefficients are far enough
+// from unit size to risk overflow or underflow in the array; ok is false
+// otherwise. ρ is a power of two, so every coefficient is scaled exactly
+// (math.Ldexp) and the roots keep every digit: a polynomial with roots on
+// the imaginary axis still has them there after balancing.
+func balance(q []float64) (b []float64, rho float64, ok bool) {
 	lo, hi := 0, len(q)-1
 	if q[lo] == 0 || q[hi] == 0 || hi == lo {
 		return nil, 0, false
 	}
-	logRho = (math.Log(math.Abs(q[lo])) - math.Log(math.Abs(q[hi]))) / float64(hi-lo)
+	logRho := (math.Log(math.Abs(q[lo])) - math.Log(math.Abs(q[hi]))) / float64(hi-lo)
 	top := math.Inf(-1)
 	for k, v := range q {
 		if v != 0 {
@@ -75,24 +78,27 @@ func balance(q []float64) (b []float64, logRho float64, ok bool) {
 	if math.Abs(logRho) <= balanceLimit && math.Abs(top) <= 10*balanceLimit {
 		return nil, 0, false
 	}
+	e := int(math.Round(logRho / math.Ln2))
+	t := int(math.Round(top / math.Ln2))
 	b = make([]float64, len(q))
 	for k, v := range q {
-		if v != 0 {
-			b[k] = math.Copysign(math.Exp(math.Log(math.Abs(v))+float64(k)*logRho-top), v)
-		}
+		b[k] = math.Ldexp(v, k*e-t)
 	}
-	return b, logRho, true
+	return b, math.Ldexp(1, e), true
 }
 
 // unbalance maps a polynomial in t = s/ρ back to s: coefficient d is
-// divided by ρ^d (up to a common positive factor, which changes no root).
+// divided by ρ^d (up to a common positive factor, which changes no root);
+// ρ is the power of two balance chose, so this is exact.
 func unbalance(a []float64, rho float64) []float64 {
 	if rho == 1 {
 		return a
 	}
+	_, e := math.Frexp(rho)
+	e-- // rho = 2^e exactly
 	out := make([]float64, len(a))
 	for d, v := range a {
-		out[d] = v / math.Pow(rho, float64(d))
+		out[d] = math.Ldexp(v, -e*d)
 	}
 	return out
 }
