@@ -41,16 +41,19 @@ type Interval struct {
 }
 
 // Accuracy is the accuracy of interval ends relative to the value itself,
-// or to the window width for values within a millionth of the window width
-// from zero, for loops whose sign array is well conditioned near the end.
+// or, for values within a millionth of the loop's own scale from zero, to
+// that scale: the smallest non-zero |k| at which a root reaches the
+// imaginary axis, or the window width if that is smaller. It holds for
+// loops whose sign array is well conditioned near the end.
 // Bisection is run a hundred times tighter so that it holds with a margin.
 const Accuracy = 1e-10
 
 // bisectTol is the bisection stopping width, relative as for Accuracy.
 const bisectTol = 1e-12
 
-// nearZero is the fraction of the window width below which a parameter
-// value counts as near zero for the relative accuracy of its end.
+// nearZero is the fraction of the loop's scale (see Accuracy) below which
+// a parameter value counts as near zero for the relative accuracy of its
+// end.
 const nearZero = 1e-6
 
 // Stable returns every maximal sub-interval of [lo, hi] in which the closed
@@ -93,11 +96,13 @@ type search struct {
 	test    stability.Test
 	counter stability.Counter
 	p       poly.Poly // scratch
+	// scale is the loop's own scale of the parameter (see Accuracy).
+	scale float64
 }
 
 // tol returns the bisection width at parameter value k.
 func (s *search) tol(k float64) float64 {
-	return bisectTol * math.Max(math.Abs(k), nearZero*(s.hi-s.lo))
+	return bisectTol * math.Max(math.Abs(k), nearZero*s.scale)
 }
 
 // stable reports whether the loop is stable at k: no root in the closed
@@ -127,6 +132,14 @@ type group struct {
 func (s *search) run() []Interval {
 	cands := s.line.candidates()
 	sort.Slice(cands, func(i, j int) bool { return cands[i].k < cands[j].k })
+	// The window width alone is no scale: over kp = 0…1e20 every boundary
+	// near kp = 8 would look like zero.
+	s.scale = s.hi - s.lo
+	for _, c := range cands {
+		if a := math.Abs(c.k); a > 0 && a < s.scale {
+			s.scale = a
+		}
+	}
 	var atLo, atHi []candidate
 	var groups []group
 	for _, c := range cands {

@@ -251,3 +251,32 @@ func TestStableIsScaleInvariant(t *testing.T) {
 		}
 	}
 }
+
+// TestWideWindows checks that a window far wider than the loop's own
+// scale does not swallow its boundaries: for P on 1/(s+1)³ the stable
+// range is −1 < kp < 8 (derived by hand: the sign array of
+// s³ + 3s² + 3s + 1 + kp needs 1 + kp > 0 and 9 > 1 + kp), whatever the
+// window; and a plant gain of 1e-12 moves the upper end to exactly 6e13
+// for 1e-12/((s+1)(s+2)(s+3)) (6·11 > 6 + 1e-12·kp, by hand).
+func TestWideWindows(t *testing.T) {
+	tests := []struct {
+		name     string
+		num, den []float64
+		lo, hi   float64
+		want     [2]float64
+	}{
+		{"third-order lag to 1e20", []float64{1}, []float64{1, 3, 3, 1}, 0, 1e20, [2]float64{0, 8}},
+		{"third-order lag from -1e15", []float64{1}, []float64{1, 3, 3, 1}, -1e15, 1e15, [2]float64{-1, 8}},
+		{"tiny plant gain", []float64{1e-12}, []float64{1, 6, 11, 6}, 0, 1e20, [2]float64{0, 6e13}},
+	}
+	for _, tc := range tests {
+		l := loopOf(t, tc.num, tc.den, "p", 1)
+		got, err := Stable(l, 0, tc.lo, tc.hi)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(got) != 1 || !near(got[0].Lo, tc.want[0]) || !near(got[0].Hi, tc.want[1]) {
+			t.Errorf("%s: %+v; want %v", tc.name, got, tc.want)
+		}
+	}
+}
