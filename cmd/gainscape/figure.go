@@ -48,7 +48,9 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 		}
 	}
 	for _, p := range append(append([]export.Point(nil), ov.Marks...), ov.Best...) {
-		fig.Marks = append(fig.Marks, render.Mark{X: p.X, Y: p.Y, Label: markLabel(p)})
+		if p.Failed == "" {
+			fig.Marks = append(fig.Marks, render.Mark{X: float64(p.X), Y: float64(p.Y), Label: markLabel(p)})
+		}
 	}
 	return fig
 }

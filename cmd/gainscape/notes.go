@@ -66,7 +66,15 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		fmt.Fprintf(&b, "- %d nodes could not be decided by the sign-array test\n", st.Undecided)
 	}
 	for _, p := range points(res) {
-		fmt.Fprintf(&b, "- %s at %s = %.4g, %s = %.4g: %s\n", pointName(p), x.Param, p.X, y.Param, p.Y, pointFigures(p))
+		if p.Failed != "" {
+			fmt.Fprintf(&b, "- %s: none found (%s)\n", pointName(p), p.Failed)
+			continue
+		}
+		fmt.Fprintf(&b, "- %s at %s = %.4g, %s = %.4g: %s", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p))
+		if p.Warning != "" {
+			fmt.Fprintf(&b, "; %s", p.Warning)
+		}
+		b.WriteString("\n")
 	}
 	if len(sc.Overlays.MsLevels) > 0 {
 		fmt.Fprintf(&b, "- Ms iso-lines drawn at %s\n", numbersText(sc.Overlays.MsLevels))

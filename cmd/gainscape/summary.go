@@ -49,7 +49,14 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
 	}
 	for _, p := range points(res) {
-		fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), x.Param, p.X, y.Param, p.Y, pointFigures(p))
+		if p.Failed != "" {
+			fmt.Fprintf(w, "%-11s none found: %s\n", pointName(p), p.Failed)
+			continue
+		}
+		fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p))
+		if p.Warning != "" {
+			fmt.Fprintf(w, "%-11s %s\n", "", p.Warning)
+		}
 	}
 	rate := float64(st.Nodes) / elapsed.Seconds()
 	fmt.Fprintf(w, "nodes       %d evaluated, edges refined and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, elapsed.Round(time.Millisecond), rate)
@@ -73,7 +80,7 @@ func points(res *study.MapResult) []export.Point {
 }
 
 func pointName(p export.Point) string {
-	if p.Criterion != "" {
+	if p.Criterion != "" || p.Failed != "" {
 		return p.Label
 	}
 	return "mark " + p.Label

@@ -105,17 +105,24 @@ type Contour struct {
 	Lines []isoline.Line `json:"lines"`
 }
 
-// Point is a marked or found design point with its figures.
+// Point is a marked or found design point with its figures. A search
+// that found nothing has Failed set to the reason, no values and null
+// numbers.
 type Point struct {
 	Label     string             `json:"label"`
 	Criterion string             `json:"criterion,omitempty"`
 	Values    map[string]float64 `json:"values"`
-	X         float64            `json:"x"`
-	Y         float64            `json:"y"`
+	X         Number             `json:"x"`
+	Y         Number             `json:"y"`
 	Stable    bool               `json:"stable"`
 	Decay     Number             `json:"decay_rate"`
 	Damping   Number             `json:"min_damping"`
 	Ms        Number             `json:"ms"`
+	// Failed says why a search found no point; Warning flags a point to
+	// read with care (one on the window's edge, where the true optimum
+	// may lie outside).
+	Failed  string `json:"failed,omitempty"`
+	Warning string `json:"warning,omitempty"`
 }
 
 // Rows lays a row-major slice of nx·ny values out as rows, row 0 first.

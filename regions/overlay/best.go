@@ -1,9 +1,9 @@
 package overlay
 
 import (
-	"errors"
 	"fmt"
 	"math"
+	"sort"
 
 	"gainscape/regions/family"
 	"gainscape/regions/plane"
@@ -13,63 +13,208 @@ import (
 // span of the axis searched.
 const searchTol = 1e-10
 
-// BestDecay returns the stable point with the largest decay rate: the
-// best node of g.Decay, refined within the cells around it by pattern
-// search on the continuous decay rate (a compass search with diagonal
-// moves and step halving, after R. Hooke, T. A. Jeeves, "Direct search
-// solution of numerical and statistical problems", J. ACM 8(2), 1961),
-// which needs no derivative: the decay rate has corners where two poles
-// are equally slow, and the optimum usually sits on one. The result is
-// never worse than the best node. g must come from Compute for s (it
-// panics otherwise); opt.Sensitivity, if set, gives Ms at the point. It
-// returns an error if no node is stable.
-func BestDecay(s plane.Setup, g *Grids, opt Options) (Optimum, error) {
+// NotFound is the error of a search that found no point meeting its
+// criterion; the map itself is fine.
+type NotFound struct{ Reason string }
+
+func (e *NotFound) Error() string { return e.Reason }
+
+// flatTol is the relative width of a flat optimum: node decay rates
+// within it of the best count as equally good, and the one with the
+// lowest Ms (the more robust design) is taken.
+const flatTol = 1e-3
+
+// tieTol is the relative difference of decay rates the local search
+// treats as a tie, broken by Ms.
+const tieTol = 1e-9
+
+// decayStarts is how many nodes of each kind (best, and most robust of
+// the nearly best) the decay search starts from; decayEvals bounds the
+// evaluations of each start.
+const (
+	decayStarts = 6
+	decayEvals  = 3000
+)
+
+// BestDecay returns the stable point with the largest decay rate among
+// those with Ms ≤ bound (no bound when bound is 0). The decay rate has
+// corners where two poles are equally slow and its maximum usually sits
+// on one, often between nodes, so the search refines from several nodes:
+// the best ones, and the most robust (lowest Ms) among those within one
+// cell's variation of the best. Each refinement is a pattern search on
+// the continuous decay rate within two cells of its node (a compass
+// search with diagonal moves and step halving, after R. Hooke,
+// T. A. Jeeves, "Direct search solution of numerical and statistical
+// problems", J. ACM 8(2), 1961), which needs no derivative. The largest
+// decay rate is often reached along a whole ridge, so optima are flat:
+// results within flatTol of the best count as equal and the lower Ms wins,
+// as it does between moves of a search that tie. With a bound, the point
+// found is checked with opt.Exact (the refined Ms) and moved back towards
+// its node until it meets the bound. g must come from Compute for s, with
+// Ms when bound is not 0 (it panics otherwise). It returns a *NotFound
+// error if no node qualifies.
+func BestDecay(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum, error) {
 	checkGrids(s, g)
-	best := -1
-	for k, v := range g.Decay {
-		if !math.IsNaN(v) && (best < 0 || v > g.Decay[best]) {
-			best = k
+	if bound != 0 && g.Ms == nil {
+		panic("overlay: BestDecay with an Ms bound needs grids computed with a Sensitivity evaluator")
+	}
+	crit := "largest decay rate"
+	if bound != 0 {
+		crit = fmt.Sprintf("largest decay rate with Ms ≤ %g", bound)
+	}
+	ms := func(k int) float64 {
+		if g.Ms == nil {
+			return 0
+		}
+		return g.Ms[k]
+	}
+	feasible := func(k int) bool {
+		return !math.IsNaN(g.Decay[k]) && (bound == 0 || ms(k) <= bound)
+	}
+	var order []int
+	for k := range g.Decay {
+		if feasible(k) {
+			order = append(order, k)
 		}
 	}
-	if best < 0 {
-		return Optimum{}, errors.New("largest decay rate: no stable node in the map")
+	if len(order) == 0 {
+		if bound != 0 && !allNaN(g.Decay) {
+			return Optimum{}, &NotFound{fmt.Sprintf("%s: no stable node has Ms ≤ %g", crit, bound)}
+		}
+		return Optimum{}, &NotFound{crit + ": no stable node in the map"}
 	}
-	i, j := best%s.X.N, best/s.X.N
+	sort.SliceStable(order, func(a, b int) bool { return g.Decay[order[a]] > g.Decay[order[b]] })
+	top := order[0]
+	// One cell's variation: the largest change from the best node to a
+	// neighbour.
+	spread := 0.0
+	ti, tj := top%s.X.N, top/s.X.N
+	for _, d := range [4][2]int{{1, 0}, {-1, 0}, {0, 1}, {0, -1}} {
+		if i, j := ti+d[0], tj+d[1]; i >= 0 && j >= 0 && i < s.X.N && j < s.Y.N {
+			if v := g.Decay[j*s.X.N+i]; !math.IsNaN(v) {
+				spread = math.Max(spread, g.Decay[top]-v)
+			}
+		}
+	}
+	starts := order[:min(decayStarts, len(order))]
+	var near []int
+	for _, k := range order {
+		if g.Decay[k] < g.Decay[top]-spread {
+			break
+		}
+		near = append(near, k)
+	}
+	sort.SliceStable(near, func(a, b int) bool { return ms(near[a]) < ms(near[b]) })
+	starts = append(append([]int(nil), starts...), near[:min(decayStarts, len(near))]...)
+
 	pr := newProber(s)
-	x0, x1 := cellRange(s.X, i)
-	y0, y1 := cellRange(s.Y, j)
+	value := func(x, y float64) (decay, m float64, ok bool) {
+		decay, _ = pr.decayAndDamping(x, y)
+		m = pr.ms(opt.Sensitivity, x, y)
+		if math.IsNaN(m) {
+			m = 0
+		}
+		return decay, m, bound == 0 || m <= bound
+	}
+	type result struct{ x, y, decay, ms float64 }
+	var best *result
+	seen := map[int]bool{}
+	for _, k := range starts {
+		if seen[k] {
+			continue
+		}
+		seen[k] = true
+		i, j := k%s.X.N, k/s.X.N
+		x, y := refineDecay(s, value, i, j)
+		if bound != 0 {
+			x, y = backOff(pr, opt.exact(), bound, s.X.At(i), s.Y.At(j), x, y)
+		}
+		d, m, _ := value(x, y)
+		r := result{x, y, d, m}
+		if best == nil || r.decay > best.decay+flatTol*math.Abs(best.decay) ||
+			(r.decay >= best.decay-flatTol*math.Abs(best.decay) && r.ms < best.ms) {
+			best = &r
+		}
+	}
+	o := pr.describe(Optimum{X: best.x, Y: best.y, Criterion: crit}, opt.exact())
+	o.Objective = o.Decay
+	return o, nil
+}
+
+// refineDecay runs the pattern search for the largest decay rate from node
+// (i, j), within two cells of it, breaking ties of decay rate by Ms.
+func refineDecay(s plane.Setup, value func(x, y float64) (float64, float64, bool), i, j int) (float64, float64) {
+	x0, x1 := cellRange(s.X, i, 2)
+	y0, y1 := cellRange(s.Y, j, 2)
+	better := func(d, m, bd, bm float64) bool {
+		if d > bd+tieTol*math.Abs(bd) {
+			return true
+		}
+		return d >= bd-tieTol*math.Abs(bd) && m < bm
+	}
 	x, y := s.X.At(i), s.Y.At(j)
-	f, _ := pr.decayAndDamping(x, y)
-	hx, hy := (x1-x0)/4, (y1-y0)/4
+	f, fm, _ := value(x, y)
+	hx, hy := (x1-x0)/8, (y1-y0)/8
 	tx, ty := searchTol*math.Abs(s.X.Span()), searchTol*math.Abs(s.Y.Span())
 	dirs := [8][2]float64{{1, 0}, {-1, 0}, {0, 1}, {0, -1}, {1, 1}, {-1, 1}, {1, -1}, {-1, -1}}
-	for evals := 0; (hx > tx || hy > ty) && evals < maxEvals; {
-		bx, by, bf := x, y, f
+	for evals := 0; (hx > tx || hy > ty) && evals < decayEvals; {
+		bx, by, bf, bm := x, y, f, fm
 		for _, d := range dirs {
 			cx, cy := clamp(x+d[0]*hx, x0, x1), clamp(y+d[1]*hy, y0, y1)
-			if v, _ := pr.decayAndDamping(cx, cy); v > bf {
-				bx, by, bf = cx, cy, v
+			if v, m, ok := value(cx, cy); ok && better(v, m, bf, bm) {
+				bx, by, bf, bm = cx, cy, v, m
 			}
 			evals++
 		}
-		if bf > f {
-			x, y, f = bx, by, bf
+		if bx != x || by != y {
+			x, y, f, fm = bx, by, bf, bm
 			continue
 		}
 		hx, hy = hx/2, hy/2
 	}
-	o := pr.describe(Optimum{X: x, Y: y, Criterion: "largest decay rate"}, opt.Sensitivity)
-	o.Objective = o.Decay
-	return o, nil
+	return x, y
+}
+
+// backOff returns the point of the segment from (ax, ay), which meets the
+// bound, to (bx, by) nearest (bx, by) whose Ms by exact is at most bound:
+// (bx, by) itself if it meets it, else the end of a bisection to
+// searchTol of the segment.
+func backOff(pr *prober, exact Sensitivity, bound, ax, ay, bx, by float64) (float64, float64) {
+	ok := func(t float64) bool {
+		x, y := ax+t*(bx-ax), ay+t*(by-ay)
+		return pr.stable(x, y) && pr.ms(exact, x, y) <= bound
+	}
+	if ok(1) {
+		return bx, by
+	}
+	lo, hi := 0.0, 1.0
+	for hi-lo > searchTol {
+		m := 0.5 * (lo + hi)
+		if ok(m) {
+			lo = m
+		} else {
+			hi = m
+		}
+	}
+	return ax + lo*(bx-ax), ay + lo*(by-ay)
+}
+
+func allNaN(v []float64) bool {
+	for _, x := range v {
+		if !math.IsNaN(x) {
+			return false
+		}
+	}
+	return true
 }
 
 // maxEvals bounds the work of one local search.
 const maxEvals = 20000
 
-// cellRange returns the values of the nodes on either side of node i of
-// a, clamped to the axis, in increasing order.
-func cellRange(a plane.Axis, i int) (float64, float64) {
-	u, v := a.At(max(i-1, 0)), a.At(min(i+1, a.N-1))
+// cellRange returns the values of the nodes cells away on either side of
+// node i of a, clamped to the axis, in increasing order.
+func cellRange(a plane.Axis, i, cells int) (float64, float64) {
+	u, v := a.At(max(i-cells, 0)), a.At(min(i+cells, a.N-1))
 	return min(u, v), max(u, v)
 }
 
@@ -85,8 +230,8 @@ func checkGrids(s plane.Setup, g *Grids) {
 // BestIntegral returns the stable point with the largest integral gain ki
 // subject to Ms ≤ bound, the load-disturbance design criterion of
 // K. J. Åström, H. Panagopoulos, T. Hägglund, "Design of PI controllers
-// based on non-convex optimization", Automatica 34(5), 1998 (from memory):
-// the integral gain sets the integrated error after a load step, and the
+// based on non-convex optimization", Automatica 34(5), 1998: the integral
+// gain sets the integrated error after a load step (IE = 1/ki), and the
 // bound on Ms keeps robustness.
 //
 // When ki is an axis, the feasible node with the largest ki is found in
@@ -94,14 +239,19 @@ func checkGrids(s plane.Setup, g *Grids) {
 // where stability ends) above it, which is located by bisection along the
 // grid edges in the ki direction, and followed between the neighbouring
 // nodes by golden-section search (J. Kiefer, "Sequential minimax search for
-// a maximum", Proc. AMS 4(3), 1953) on the contour's height. When ki is
-// cut by the axis maximum, the feasible node there with the smallest Ms is
-// returned. When ki is a fixed parameter, every feasible node has the same
-// objective and the one with the smallest Ms is returned.
+// a maximum", Proc. AMS 4(3), 1953) on the contour's height. The grid and
+// these searches use opt.Sensitivity, which may read Ms a little low; the
+// point found is then checked with opt.Exact, the refined Ms the probe
+// reports, and lowered in ki by bisection until it meets the bound, so
+// the point returned always satisfies it. When ki is cut by the axis
+// maximum, the feasible node there with the smallest Ms is returned. When
+// ki is a fixed parameter, every feasible node has the same objective and
+// the one with the smallest Ms is returned.
 //
 // g must come from Compute for s with opt.Sensitivity set (it panics
-// otherwise). It returns an error if the family has no ki, the bound is
-// not a positive number, or no node satisfies it.
+// otherwise). It returns an error if the family has no ki or the bound is
+// not a positive number, and a *NotFound error if no node satisfies the
+// bound.
 func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum, error) {
 	checkGrids(s, g)
 	if opt.Sensitivity == nil || g.Ms == nil {
@@ -117,6 +267,14 @@ func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum,
 	crit := fmt.Sprintf("largest ki with Ms ≤ %g", bound)
 	feasible := func(k int) bool { return !math.IsNaN(g.Ms[k]) && g.Ms[k] <= bound }
 	pr := newProber(s)
+	exact := opt.exact()
+	meets := func(x, y float64) bool { return pr.stable(x, y) && pr.ms(exact, x, y) <= bound }
+	none := func() error {
+		if allNaN(g.Decay) {
+			return &NotFound{crit + ": no stable node in the map"}
+		}
+		return &NotFound{fmt.Sprintf("%s: no stable node has Ms ≤ %g", crit, bound)}
+	}
 
 	var along plane.Axis // the ki axis, or none
 	var at func(u, v float64) (x, y float64)
@@ -134,15 +292,15 @@ func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum,
 	default:
 		best := -1
 		for k := range g.Ms {
-			if feasible(k) && (best < 0 || g.Ms[k] < g.Ms[best]) {
+			if feasible(k) && meets(s.X.At(k%s.X.N), s.Y.At(k/s.X.N)) && (best < 0 || g.Ms[k] < g.Ms[best]) {
 				best = k
 			}
 		}
 		if best < 0 {
-			return Optimum{}, fmt.Errorf("%s: no stable node meets the bound", crit)
+			return Optimum{}, none()
 		}
 		o := Optimum{X: s.X.At(best % s.X.N), Y: s.Y.At(best / s.X.N), Criterion: crit + " (ki fixed: smallest Ms)"}
-		o = pr.describe(o, opt.Sensitivity)
+		o = pr.describe(o, exact)
 		o.Objective = s.Values[ki]
 		return o, nil
 	}
@@ -150,18 +308,22 @@ func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum,
 	if !(along.Min < along.Max) {
 		panic(fmt.Sprintf("overlay: ki axis %v must increase", along))
 	}
-	// The feasible nodes on the highest ki line; the one with the smallest
-	// Ms stands for the line if no edge above can be refined.
+	// The highest ki line with a node that meets the bound by the refined
+	// Ms as well; its feasible node with the smallest Ms stands for the
+	// line if no edge above can be refined.
 	top, bestV := -1, -1
 	for iu := along.N - 1; iu >= 0 && top < 0; iu-- {
 		for iv := 0; iv < other.N; iv++ {
-			if k := index(iu, iv); feasible(k) && (bestV < 0 || g.Ms[k] < g.Ms[index(iu, bestV)]) {
-				top, bestV = iu, iv
+			k := index(iu, iv)
+			if feasible(k) && (bestV < 0 || g.Ms[k] < g.Ms[index(iu, bestV)]) {
+				if x, y := at(along.At(iu), other.At(iv)); meets(x, y) {
+					top, bestV = iu, iv
+				}
 			}
 		}
 	}
 	if top < 0 {
-		return Optimum{}, fmt.Errorf("%s: no stable node meets the bound", crit)
+		return Optimum{}, none()
 	}
 	ok := func(u, v float64) bool {
 		x, y := at(u, v)
@@ -180,12 +342,25 @@ func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum,
 		}
 		bu, bv = c.follow(top, bu, bv, other)
 	}
+	// The refined Ms may exceed what the grid's Ms allowed: lower ki
+	// until the point meets the bound, from the line below, which does.
+	if x, y := at(bu, bv); !meets(x, y) {
+		u0 := along.At(top)
+		if x0, y0 := at(u0, bv); meets(x0, y0) {
+			nx, ny := backOff(pr, exact, bound, x0, y0, x, y)
+			bu = ny
+			if ki == s.XIndex {
+				bu = nx
+			}
+		} else {
+			bu, bv = u0, other.At(bestV)
+		}
+	}
 	x, y := at(bu, bv)
-	o := pr.describe(Optimum{X: x, Y: y, Criterion: crit}, opt.Sensitivity)
+	o := pr.describe(Optimum{X: x, Y: y, Criterion: crit}, exact)
 	o.Objective = bu
 	return o, nil
 }
-
 // contour measures the height, in the ki direction, of the feasible set
 // above grid line top of the ki axis.
 type contour struct {
@@ -231,7 +406,7 @@ func (c contour) follow(top int, u, v float64, other plane.Axis) (float64, float
 			iv = k
 		}
 	}
-	a, b := cellRange(other, iv)
+	a, b := cellRange(other, iv, 1)
 	tol := searchTol * math.Abs(other.Span())
 	g := (math.Sqrt(5) - 1) / 2
 	p, q := b-g*(b-a), a+g*(b-a)

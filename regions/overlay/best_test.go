@@ -40,7 +40,7 @@ func TestBestDecayHandDerived(t *testing.T) {
 			nodeBest = math.Max(nodeBest, v)
 		}
 	}
-	o, err := BestDecay(s, g, Options{Sensitivity: sweepMs})
+	o, err := BestDecay(s, g, Options{Sensitivity: sweepMs}, 0)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -170,7 +170,7 @@ func TestBestErrors(t *testing.T) {
 		run  func() error
 		want string
 	}{
-		{"no stable node for decay", func() error { _, err := BestDecay(unstable, gridsOf(t, unstable, opt), opt); return err }, "no stable node"},
+		{"no stable node for decay", func() error { _, err := BestDecay(unstable, gridsOf(t, unstable, opt), opt, 0); return err }, "no stable node"},
 		{"no stable node for ki", func() error { _, err := BestIntegral(unstable, gridsOf(t, unstable, opt), opt, 2); return err }, "no stable node"},
 		{"family without ki", func() error { _, err := BestIntegral(pd, gridsOf(t, pd, opt), opt, 2); return err }, "ki"},
 		{"negative bound", func() error { _, err := BestIntegral(pi, gridsOf(t, pi, opt), opt, -1); return err }, "-1"},

@@ -36,9 +36,21 @@ type Options struct {
 	// Sensitivity, if set, is evaluated at every stable node into
 	// Grids.Ms.
 	Sensitivity Sensitivity
+	// Exact, if set, is the refined Ms (as one design point's report
+	// gives it) with which the searches check the point they return;
+	// Sensitivity stands in for it when it is nil.
+	Exact Sensitivity
 	// Progress, if set, is called after each finished row with the number
 	// of rows done so far, from worker goroutines.
 	Progress func(rowsDone int)
+}
+
+// exact returns the Ms the searches check their results with.
+func (o Options) exact() Sensitivity {
+	if o.Exact != nil {
+		return o.Exact
+	}
+	return o.Sensitivity
 }
 
 // Grids holds per-node quantities over the axes of a stability map,

@@ -2,8 +2,9 @@ package study
 
 import (
 	"context"
+	"errors"
+	"fmt"
 	"math"
-	"slices"
 	"strings"
 
 	"gainscape/regions/export"
@@ -64,7 +65,10 @@ func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
 // computeOverlays evaluates the overlays, marks and searches of ov, or
 // returns nil when none is asked for.
 func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, opt Options) (*Overlays, error) {
-	wantMs := len(ov.MsLevels) > 0 || slices.Contains(ov.Best, BestIntegral)
+	// Ms is needed for its iso-lines, and by every search: as the ki
+	// search's bound, as the decay search's bound when one is given, and
+	// to break the ties of a flat optimum.
+	wantMs := len(ov.MsLevels) > 0 || len(ov.Best) > 0
 	if !ov.Decay && len(ov.DecayLevels) == 0 && len(ov.DampingLevels) == 0 && !wantMs && len(ov.Best) == 0 && len(ov.Marks) == 0 {
 		return nil, nil
 	}
@@ -75,6 +79,7 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 			return nil, err
 		}
 		o.Sensitivity = ev.Ms
+		o.Exact = refinedMs
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -102,22 +107,54 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 		var err error
 		switch b {
 		case BestDecay:
-			best, err = overlay.BestDecay(s, g, o)
+			best, err = overlay.BestDecay(s, g, o, ov.MsBound)
+			if err == nil && ov.MsBound == 0 {
+				best.Criterion += "; no Ms bound (--ms-bound sets one)"
+			}
 		case BestIntegral:
 			bound := ov.MsBound
 			if bound == 0 {
 				bound = defaultKiBound
 			}
 			best, err = overlay.BestIntegral(s, g, o, bound)
+			if err == nil && ov.MsBound == 0 {
+				best.Criterion += fmt.Sprintf("; %g is the default bound (--ms-bound sets another)", defaultKiBound)
+			}
 		}
-		if err != nil {
+		var nf *overlay.NotFound
+		switch {
+		case errors.As(err, &nf):
+			nan := export.Number(math.NaN())
+			res.Best = append(res.Best, export.Point{Label: "best " + b, Failed: nf.Reason, X: nan, Y: nan, Decay: nan, Damping: nan, Ms: nan, Values: map[string]float64{}})
+			continue
+		case err != nil:
 			return nil, &InputError{Flag: "--best", Key: "overlays.best", Value: b, Err: err}
 		}
 		p, _ := pointAt(s, best.X, best.Y)
 		p.Label, p.Criterion = "best "+b, best.Criterion
+		if onWindowEdge(s, best.X, best.Y) {
+			p.Warning = "on the edge of the window: the best point may lie outside it; widen the window to see"
+		}
 		res.Best = append(res.Best, p)
 	}
 	return res, nil
+}
+
+// refinedMs is Ms as the probe computes it (margins.Loop.Margins), with
+// which the searches check the points they return.
+func refinedMs(num, den poly.Poly) float64 {
+	m, err := margins.Loop{Num: num.Clone(), Den: den.Clone()}.Margins()
+	if err != nil {
+		return math.NaN()
+	}
+	return m.Ms
+}
+
+// onWindowEdge reports whether (x, y) lies on a side of the window, to
+// within a millionth of its spans.
+func onWindowEdge(s plane.Setup, x, y float64) bool {
+	tx, ty := 1e-6*s.X.Span(), 1e-6*s.Y.Span()
+	return x-s.X.Min <= tx || s.X.Max-x <= tx || y-s.Y.Min <= ty || s.Y.Max-y <= ty
 }
 
 // msEvaluator returns a fast Ms evaluator whose frequency grid covers the
@@ -166,7 +203,7 @@ func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
 // pointAt describes the loop at (x, y) of the plane.
 func pointAt(s plane.Setup, x, y float64) (export.Point, error) {
 	l := s.At(x, y)
-	p := export.Point{Values: valueMap(l), X: x, Y: y}
+	p := export.Point{Values: valueMap(l), X: export.Number(x), Y: export.Number(y)}
 	poles, err := margins.Poles(l.Characteristic())
 	if err != nil {
 		return p, err
