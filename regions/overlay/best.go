@@ -361,6 +361,7 @@ func BestIntegral(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum,
 	o.Objective = bu
 	return o, nil
 }
+
 // contour measures the height, in the ki direction, of the feasible set
 // above grid line top of the ki axis.
 type contour struct {

@@ -106,7 +106,7 @@ func TestLightlyDampedPairsAgainstExactCounts(t *testing.T) {
 				re, im := -(0.2 + 3*rng.Float64()), 0.5+5*rng.Float64()
 				roots = append(roots, complex(re, im), complex(re, -im))
 			} else {
-				roots = append(roots, complex(-(0.1 + 4*rng.Float64()), 0))
+				roots = append(roots, complex(-(0.1+4*rng.Float64()), 0))
 			}
 		}
 		p := poly.FromRoots(roots).Scaled(math.Exp(6*rng.Float64() - 3))
