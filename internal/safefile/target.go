@@ -35,15 +35,19 @@ func resolve(name, path string) (target, error) {
 	fi, err := os.Lstat(abs)
 	switch {
 	case err == nil && fi.Mode()&fs.ModeSymlink != 0:
-		real, err := filepath.EvalSymlinks(abs)
+		fi, err := os.Stat(abs)
 		if errors.Is(err, fs.ErrNotExist) {
 			return target{}, problem(name, path, "is a symbolic link to a missing file")
 		}
 		if err != nil {
 			return target{}, wrapOS(name, path, err)
 		}
-		if fi, err = os.Stat(real); err != nil {
-			return target{}, wrapOS(name, path, err)
+		if err := replaceable(name, path, fi); err != nil {
+			return target{}, err
+		}
+		real, err := filepath.EvalSymlinks(abs)
+		if err != nil {
+			return target{}, problem(name, path, "is a symbolic link that cannot be followed to a file")
 		}
 		return existing(name, path, real, fi)
 	case err == nil:
