@@ -84,7 +84,7 @@ func TestReadableTicksHostileRanges(t *testing.T) {
 // drawn from the whole float64 line, at every scale.
 func TestReadableTicksRandomRanges(t *testing.T) {
 	r := rand.New(rand.NewPCG(1, 2))
-	for range 20000 {
+	for range 5000 {
 		a := math.Float64frombits(r.Uint64())
 		b := a + math.Float64frombits(r.Uint64()&^(1<<63))
 		if r.IntN(2) == 0 {
