@@ -76,12 +76,20 @@ const DefaultGrace = 2 * time.Second
 // ends the process with that exit code; a further signal during cleanup
 // ends it at once.
 //
+// A signal the process was started with ignored, as nohup ignores SIGHUP
+// and a shell ignores SIGINT for a job in the background, stays ignored:
+// catching it would undo the user's choice.
+//
 // Calling stop releases the signals and cancels the context; it is safe
 // to call more than once.
 func Watch(parent context.Context, grace time.Duration, cleanup func()) (ctx context.Context, stop func()) {
 	ctx, cancel := context.WithCancelCause(parent)
 	sigs := make(chan os.Signal, len(signals))
-	signal.Notify(sigs, Signals()...)
+	for _, s := range Signals() {
+		if !signal.Ignored(s) {
+			signal.Notify(sigs, s)
+		}
+	}
 	done := make(chan struct{})
 	go watch(sigs, done, cancel, grace, cleanup)
 	var once sync.Once

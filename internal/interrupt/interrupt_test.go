@@ -9,6 +9,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"os/exec"
+	"os/signal"
 	"path/filepath"
 	"strings"
 	"syscall"
@@ -207,4 +208,19 @@ func names(entries []os.DirEntry) []string {
 		out = append(out, e.Name())
 	}
 	return out
+}
+
+// TestIgnoredSignalStaysIgnored starts the child with SIGHUP ignored, as
+// nohup does, and checks that a hangup then neither stops it nor kills
+// it, while SIGTERM still does.
+func TestIgnoredSignalStaysIgnored(t *testing.T) {
+	dir := t.TempDir()
+	os.WriteFile(filepath.Join(dir, "keep.png"), []byte(keptContent), 0o644)
+	signal.Ignore(syscall.SIGHUP)
+	cmd, lines, stderr := startChild(t, "prompt", dir)
+	signal.Reset(syscall.SIGHUP)
+	awaitLine(t, lines, "ready")
+	cmd.Process.Signal(syscall.SIGHUP)
+	cmd.Process.Signal(syscall.SIGTERM)
+	checkInterrupted(t, waitChild(t, cmd), syscall.SIGTERM, stderr.String(), false)
 }
