@@ -83,7 +83,8 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	var fixed map[string]number
 	var markTables []bool
 	bind := bindings(&s, &markTables)
-	if err := checkCase(name, md.Keys(), bind); err != nil {
+	line := keyLine(data)
+	if err := checkCase(name, md.Keys(), bind, line); err != nil {
 		return Scenario{}, err
 	}
 	if !md.IsDefined("schema") {
@@ -115,7 +116,7 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 			return Scenario{}, fromTOML(name, err, "")
 		}
 	}
-	if err := unknownKeys(name, md.Undecoded(), bind); err != nil {
+	if err := unknownKeys(name, md.Undecoded(), bind, line); err != nil {
 		return Scenario{}, err
 	}
 	if len(fixed) > MaxFixed {
@@ -223,7 +224,7 @@ func keysOf(binding any) []string {
 // checkCase rejects a key that differs from a schema key only in letter
 // case. The TOML reader would match it to the field anyway; the schema is
 // case-sensitive so that a file has one spelling.
-func checkCase(file string, keys []toml.Key, bind map[string]any) error {
+func checkCase(file string, keys []toml.Key, bind map[string]any, line func(toml.Key) int) error {
 	for _, k := range keys {
 		var known []string
 		switch {
@@ -238,7 +239,7 @@ func checkCase(file string, keys []toml.Key, bind map[string]any) error {
 		for _, name := range known {
 			if last != name && strings.EqualFold(last, name) {
 				want := append(append(toml.Key(nil), k[:len(k)-1]...), name)
-				return &Error{File: file, Key: k.String(), Msg: fmt.Sprintf("unknown key; keys are lower case: write %q", want.String())}
+				return &Error{File: file, Line: line(k), Key: k.String(), Msg: fmt.Sprintf("unknown key; keys are lower case: write %q", want.String())}
 			}
 		}
 	}
@@ -248,10 +249,12 @@ func checkCase(file string, keys []toml.Key, bind map[string]any) error {
 // unknownKeys reports the keys the decoding left undecoded, outermost
 // only: a key under an unknown table is not reported again. Keys inside
 // the tables of overlays.marks are checked by intoMarks, which the
-// reader does not tell about them.
-func unknownKeys(file string, undecoded []toml.Key, bind map[string]any) error {
+// reader does not tell about them. The keys shown get their lines from
+// line; the others are only counted.
+func unknownKeys(file string, undecoded []toml.Key, bind map[string]any, line func(toml.Key) int) error {
 	var errs []error
 	reported := map[string]bool{}
+	var shown []toml.Key
 	for _, k := range undecoded {
 		if len(k) >= 3 && k[0] == "overlays" && k[1] == "marks" {
 			continue
@@ -269,9 +272,46 @@ func unknownKeys(file string, undecoded []toml.Key, bind map[string]any) error {
 		} else {
 			msg = "unknown key"
 		}
+		if len(shown) < maxReported {
+			shown = append(shown, k)
+		}
 		errs = append(errs, &Error{File: file, Key: key, Msg: msg})
 	}
+	for i, k := range shown {
+		errs[i].(*Error).Line = line(k)
+	}
 	return joinReported(file, errs)
+}
+
+// keyLine returns a function giving the line of a key of the TOML text
+// data, or 0. It reads the text once more, the first time it is asked,
+// into tables of undecoded values, which the keys the schema does not
+// know need to be found.
+func keyLine(data []byte) func(toml.Key) int {
+	var md toml.MetaData
+	var top map[string]toml.Primitive
+	read := false
+	return func(k toml.Key) int {
+		if !read {
+			read = true
+			var err error
+			if md, err = toml.NewDecoder(bytes.NewReader(data)).Decode(&top); err != nil {
+				top = nil
+			}
+		}
+		prim, ok := top[k[0]]
+		for _, part := range k[1:] {
+			var table map[string]toml.Primitive
+			if !ok || md.PrimitiveDecode(prim, &table) != nil {
+				return 0
+			}
+			prim, ok = table[part]
+		}
+		if !ok {
+			return 0
+		}
+		return lineOf(&md, prim)
+	}
 }
 
 // under reports whether key or one of the tables it lies in is among the
