@@ -97,6 +97,9 @@ func TestWhere(t *testing.T) {
 			}
 		})
 	}
+	if !s.Given("loop.plant") || !s.Given("overlays.marks[1]") || s.Given("axes.grid") {
+		t.Error("Given does not tell the keys the file gave from those it left out")
+	}
 	if got := (Scenario{}).Where("axes.x"); got != "axes.x" {
 		t.Errorf("Where without origins = %q; want the key", got)
 	}
