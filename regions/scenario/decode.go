@@ -16,11 +16,15 @@ import (
 	"gainscape/regions/spec"
 )
 
-// maxFileSize bounds what Decode reads. A scenario is a few hundred bytes;
-// the bound keeps a wrong file, an image or a log, from being read whole.
-const maxFileSize = 1 << 20
+// maxFileSize bounds what Decode reads. A scenario is a few hundred
+// bytes; the bound keeps a wrong file, an image or a log, from being read
+// whole, and bounds the work of finding the line of each key, which the
+// TOML reader does by scanning the whole text.
+const maxFileSize = 64 << 10
 
-// Load reads the scenario file at path; see Decode.
+// Load reads the scenario file at path; see Decode. The origins name the
+// file by path, so that ResolvePaths takes its output paths relative to
+// path's folder.
 func Load(path string) (Scenario, error) {
 	f, err := os.Open(path)
 	if err != nil {
@@ -35,13 +39,16 @@ func Load(path string) (Scenario, error) {
 }
 
 // Decode reads a scenario file from r; name is the file name for
-// messages. Keys the file leaves out keep their values from Default.
+// messages and, for ResolvePaths, the file's path. Keys the file leaves
+// out keep their values from Default.
 //
-// Decode checks TOML syntax, the schema version, key names (which are
+// Decode checks the size and nesting of the text before the TOML reader
+// sees it, then TOML syntax, the schema version, key names (which are
 // case-sensitive) and value types. It stops at the first problem it meets
 // and returns it as an *Error naming the file, the key and, where the
 // TOML reader knows it, the line; unknown keys are reported together,
-// joined. Within a table the order of the checks is not the order of the
+// joined, at most three. It records in Origins the file and line of each
+// key given, and the file itself under the empty key. Within a table the order of the checks is not the order of the
 // lines, so of two wrong values either may be reported. It does not check
 // that the scenario is complete or consistent, because command-line flags
 // may still complete or override it: call Validate on the final scenario.
@@ -55,6 +62,10 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	}
 	if len(data) > maxFileSize {
 		return fail("", "is larger than %d bytes; a scenario file is a short TOML text", maxFileSize)
+	}
+	if line := nesting(data); line > 0 {
+		return Scenario{}, &Error{File: name, Line: line,
+			Msg: fmt.Sprintf("nested deeper than %d levels of arrays, tables and dotted keys; a scenario needs at most 4", MaxNesting)}
 	}
 	var top struct {
 		Schema   toml.Primitive `toml:"schema"`
@@ -72,7 +83,8 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	var fixed map[string]number
 	var markTables []bool
 	bind := bindings(&s, &markTables)
-	if err := checkCase(name, md.Keys(), bind); err != nil {
+	line := keyLine(data)
+	if err := checkCase(name, md.Keys(), bind, line); err != nil {
 		return Scenario{}, err
 	}
 	if !md.IsDefined("schema") {
@@ -104,13 +116,56 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 			return Scenario{}, fromTOML(name, err, "")
 		}
 	}
-	if err := unknownKeys(name, md.Undecoded(), bind); err != nil {
+	if err := unknownKeys(name, md.Undecoded(), bind, line); err != nil {
 		return Scenario{}, err
+	}
+	if len(fixed) > MaxFixed {
+		return fail("fixed", "%d values; a scenario fixes at most %d parameters", len(fixed), MaxFixed)
 	}
 	s.Fixed = inFileOrder(fixed, md.Keys())
 	orderMarks(s.Overlays.Marks, markTables, md.Keys())
+	s.Origins = Origins{"": {File: name}, "schema": {File: name, Line: lineOf(&md, top.Schema)}}
+	for _, t := range []struct {
+		name string
+		prim toml.Primitive
+	}{{"loop", top.Loop}, {"axes", top.Axes}, {"fixed", top.Fixed}, {"overlays", top.Overlays}, {"output", top.Output}} {
+		if md.IsDefined(t.name) {
+			recordLines(s.Origins, &md, name, t.name, t.prim)
+		}
+	}
 	return s, nil
 }
+
+// recordLines records in o the file and line of each key of the table.
+func recordLines(o Origins, md *toml.MetaData, file, table string, prim toml.Primitive) {
+	var keys map[string]toml.Primitive
+	if md.PrimitiveDecode(prim, &keys) != nil {
+		return
+	}
+	for k, p := range keys {
+		o[toml.Key{table, k}.String()] = Origin{File: file, Line: lineOf(md, p)}
+	}
+}
+
+// lineOf returns the line of the key whose value is prim, 0 if unknown.
+// The TOML reader keeps the position of every key but shows it only in
+// the errors of decoding, so lineOf decodes the value into lineProbe,
+// which always fails, and reads the line off the error.
+func lineOf(md *toml.MetaData, prim toml.Primitive) int {
+	var pe toml.ParseError
+	if errors.As(md.PrimitiveDecode(prim, lineProbe{}), &pe) {
+		return pe.Position.Line
+	}
+	return 0
+}
+
+// lineProbe refuses every value; see lineOf.
+type lineProbe struct{}
+
+// UnmarshalTOML implements toml.Unmarshaler.
+func (lineProbe) UnmarshalTOML(any) error { return errLineProbe }
+
+var errLineProbe = errors.New("line probe")
 
 // bindings returns, for each table whose keys are fixed, a pointer to a
 // struct whose tagged fields write the keys' values into s. The tags are
@@ -169,7 +224,7 @@ func keysOf(binding any) []string {
 // checkCase rejects a key that differs from a schema key only in letter
 // case. The TOML reader would match it to the field anyway; the schema is
 // case-sensitive so that a file has one spelling.
-func checkCase(file string, keys []toml.Key, bind map[string]any) error {
+func checkCase(file string, keys []toml.Key, bind map[string]any, line func(toml.Key) int) error {
 	for _, k := range keys {
 		var known []string
 		switch {
@@ -184,7 +239,7 @@ func checkCase(file string, keys []toml.Key, bind map[string]any) error {
 		for _, name := range known {
 			if last != name && strings.EqualFold(last, name) {
 				want := append(append(toml.Key(nil), k[:len(k)-1]...), name)
-				return &Error{File: file, Key: k.String(), Msg: fmt.Sprintf("unknown key; keys are lower case: write %q", want.String())}
+				return &Error{File: file, Line: line(k), Key: k.String(), Msg: fmt.Sprintf("unknown key; keys are lower case: write %q", want.String())}
 			}
 		}
 	}
@@ -194,19 +249,21 @@ func checkCase(file string, keys []toml.Key, bind map[string]any) error {
 // unknownKeys reports the keys the decoding left undecoded, outermost
 // only: a key under an unknown table is not reported again. Keys inside
 // the tables of overlays.marks are checked by intoMarks, which the
-// reader does not tell about them.
-func unknownKeys(file string, undecoded []toml.Key, bind map[string]any) error {
+// reader does not tell about them. The keys shown get their lines from
+// line; the others are only counted.
+func unknownKeys(file string, undecoded []toml.Key, bind map[string]any, line func(toml.Key) int) error {
 	var errs []error
-	var reported []string
+	reported := map[string]bool{}
+	var shown []toml.Key
 	for _, k := range undecoded {
 		if len(k) >= 3 && k[0] == "overlays" && k[1] == "marks" {
 			continue
 		}
-		key := k.String()
-		if under(key, reported) {
+		if under(k, reported) {
 			continue
 		}
-		reported = append(reported, key)
+		key := k.String()
+		reported[key] = true
 		var msg string
 		if len(k) == 1 {
 			msg = "unknown key; the top level holds schema and the tables [loop], [axes], [fixed], [overlays] and [output]"
@@ -215,15 +272,53 @@ func unknownKeys(file string, undecoded []toml.Key, bind map[string]any) error {
 		} else {
 			msg = "unknown key"
 		}
+		if len(shown) < maxReported {
+			shown = append(shown, k)
+		}
 		errs = append(errs, &Error{File: file, Key: key, Msg: msg})
 	}
-	return errors.Join(errs...)
+	for i, k := range shown {
+		errs[i].(*Error).Line = line(k)
+	}
+	return joinReported(file, errs)
 }
 
-// under reports whether key is one of outer or lies under one of them.
-func under(key string, outer []string) bool {
-	for _, o := range outer {
-		if key == o || strings.HasPrefix(key, o+".") {
+// keyLine returns a function giving the line of a key of the TOML text
+// data, or 0. It reads the text once more, the first time it is asked,
+// into tables of undecoded values, which the keys the schema does not
+// know need to be found.
+func keyLine(data []byte) func(toml.Key) int {
+	var md toml.MetaData
+	var top map[string]toml.Primitive
+	read := false
+	return func(k toml.Key) int {
+		if !read {
+			read = true
+			var err error
+			if md, err = toml.NewDecoder(bytes.NewReader(data)).Decode(&top); err != nil {
+				top = nil
+			}
+		}
+		prim, ok := top[k[0]]
+		for _, part := range k[1:] {
+			var table map[string]toml.Primitive
+			if !ok || md.PrimitiveDecode(prim, &table) != nil {
+				return 0
+			}
+			prim, ok = table[part]
+		}
+		if !ok {
+			return 0
+		}
+		return lineOf(&md, prim)
+	}
+}
+
+// under reports whether key or one of the tables it lies in is among the
+// keys reported, which are written as Key.String writes them.
+func under(key toml.Key, reported map[string]bool) bool {
+	for n := 1; n <= len(key); n++ {
+		if reported[key[:n].String()] {
 			return true
 		}
 	}

@@ -13,11 +13,22 @@ import (
 	"gainscape/regions/spec"
 )
 
-// Save writes s to the file at path in the form Encode writes, through a
+// Save writes s to the file at path as EncodeFile writes it, through a
 // temporary file renamed into place, so that a failure leaves no partial
-// file and path as it was. The header names the file by its base name.
+// file and path as it was.
 func Save(path string, s Scenario) error {
-	return safefile.Write(path, func(w io.Writer) error { return encode(w, s, filepath.Base(path)) })
+	return safefile.Write(path, func(w io.Writer) error { return EncodeFile(w, s, path) })
+}
+
+// EncodeFile writes s as Encode does, for the scenario file at path: the
+// header names the file by its base name, and the output paths, which
+// are relative to the current folder, are rewritten relative to path's
+// folder, where ResolvePaths takes them from when the file is run. A
+// path that lands outside that folder is kept, with its "..", and is
+// refused when the file is run unless the user allows it.
+func EncodeFile(w io.Writer, s Scenario, path string) error {
+	s.Output = s.Output.relativeTo(filepath.Dir(path))
+	return encode(w, s, filepath.Base(path))
 }
 
 // Encode writes s as a scenario file: a header comment saying what the

@@ -77,3 +77,43 @@ func ExampleScenario_Override() {
 	// Output:
 	// 1/(s+1)^3 100 80 quick.png
 }
+
+// ExampleScenario_Validate shows where problems are reported: against the
+// file, line and key for a value the file gave, against the flag for a
+// value a flag replaced. The file is invented for this example.
+func ExampleScenario_Validate() {
+	const file = `schema = 1
+[loop]
+plant = "1/(s+1)^3"
+[fixed]
+ki = 0.5
+[overlays]
+best = ["fastest"]
+`
+	s, _ := scenario.Decode(strings.NewReader(file), "lag.toml")
+	fmt.Println(s.Validate())
+
+	var flags scenario.Scenario
+	flags.Overlays.Best = []string{"ki", "ki"}
+	s.Override(flags, func(name string) bool { return name == "best" })
+	fmt.Println(s.Validate())
+	// Output:
+	// scenario file "lag.toml", line 5: fixed.ki: ki is swept by axes.y; an axis parameter cannot also be fixed
+	// scenario file "lag.toml", line 7: overlays.best[1]: "fastest" is not a search; the searches are decay and ki
+	// scenario file "lag.toml", line 5: fixed.ki: ki is swept by axes.y; an axis parameter cannot also be fixed
+	// --best: "ki" is listed twice
+}
+
+// ExampleScenario_ResolvePaths runs a scenario kept in another folder:
+// its output paths are taken from that folder, and one that would leave
+// it is refused. The file is invented for this example.
+func ExampleScenario_ResolvePaths() {
+	s, _ := scenario.Decode(strings.NewReader("schema = 1\n[output]\nimage = \"pump.svg\"\n"), "designs/pump.toml")
+	fmt.Println(s.ResolvePaths(false), s.Output.Image)
+
+	s, _ = scenario.Decode(strings.NewReader("schema = 1\n[output]\ndata = \"../../.profile.json\"\n"), "designs/pump.toml")
+	fmt.Println(s.ResolvePaths(false))
+	// Output:
+	// <nil> designs/pump.svg
+	// scenario file "designs/pump.toml", line 3: output.data: "../../.profile.json" climbs out of the scenario's folder; a scenario writes only inside its own folder unless --allow-outside-paths is given
+}

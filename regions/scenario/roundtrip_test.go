@@ -65,7 +65,7 @@ func TestRoundTrip(t *testing.T) {
 			s.Output.Title = "tank \"A\" \\ 60 °C\tζ ≥ 0.7\nline two\x01\x7f\b\f\r"
 			s.Output.Image = `C:\maps\tank map.png`
 			s.Output.Note = "notes/été.md"
-			s.Overlays.Best = []string{"a \"quoted\" search", "ω"}
+			s.Overlays.Best = []string{"ki"}
 		}},
 		{"empty lists and no fixed values", func(s *Scenario) {
 			s.Fixed = nil
@@ -88,7 +88,7 @@ func TestRoundTrip(t *testing.T) {
 			if err != nil {
 				t.Fatalf("Decode: %v\nfile:\n%s", err, b.String())
 			}
-			if !reflect.DeepEqual(got, s) {
+			if !reflect.DeepEqual(noOrigins(got), s) {
 				t.Fatalf("round trip changed the scenario\n got %+v\nwant %+v\nfile:\n%s", got, s, b.String())
 			}
 			for i, x := range s.Loop.Numerator {
@@ -135,7 +135,8 @@ func TestEncodeRefusesInvalid(t *testing.T) {
 // failed save leaves the earlier file as it was and no temporary file.
 func TestSaveLoad(t *testing.T) {
 	dir := t.TempDir()
-	path := filepath.Join(dir, "tank.toml")
+	t.Chdir(dir)
+	path := "tank.toml"
 	s := tank()
 	if err := Save(path, s); err != nil {
 		t.Fatal(err)
@@ -144,7 +145,7 @@ func TestSaveLoad(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !reflect.DeepEqual(got, s) {
+	if !reflect.DeepEqual(noOrigins(got), s) {
 		t.Fatalf("Load(Save(s)) = %+v; want %+v", got, s)
 	}
 	text, _ := os.ReadFile(path)
@@ -211,7 +212,7 @@ func TestDecodeForms(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if !reflect.DeepEqual(got, want) {
+			if !reflect.DeepEqual(noOrigins(got), want) {
 				t.Fatalf("got  %+v\nwant %+v", got, want)
 			}
 		})
@@ -220,3 +221,10 @@ func TestDecodeForms(t *testing.T) {
 
 // val is a parameter value, for short test tables.
 func val(name string, x float64) spec.Value { return spec.Value{Param: name, V: x} }
+
+// noOrigins returns s without its origins, for comparing scenarios by
+// their values.
+func noOrigins(s Scenario) Scenario {
+	s.Origins = nil
+	return s
+}

@@ -3,13 +3,25 @@
 // and writes it as a scenario file in TOML, so a map can be re-run,
 // versioned and shared. The keys are described in SCHEMA.md.
 //
-// Decoding is strict: an unknown key, a value of the wrong type or a
-// missing or unknown schema version is an *Error naming the file, the key
-// and, where the TOML reader knows it, the line. Values on the command
-// line override the file; see Override.
+// Decoding is strict: an unknown key, a value of the wrong type, a
+// missing or unknown schema version or a file nested deeper than any
+// scenario is an *Error naming the file, the key and, where the TOML
+// reader knows it, the line. Values on the command line override the
+// file; see Override. The scenario remembers where each value was given,
+// so that every later message about it names the file, line and key, or
+// the flag, that gave it.
+//
+// A scenario file is data, not a command: the output paths it gives are
+// taken relative to its own folder and may not leave it unless the user
+// allows it (ResolvePaths), and every list has a bound (MaxLevels,
+// MaxMarks, MaxFixed, MaxNesting).
 package scenario
 
-import "gainscape/regions/spec"
+import (
+	"fmt"
+
+	"gainscape/regions/spec"
+)
 
 // Version is the schema version this package reads and writes: the value
 // of the top-level key schema.
@@ -24,6 +36,9 @@ type Scenario struct {
 	Fixed    []spec.Value // values of the parameters that are not axes, in file order (--set)
 	Overlays Overlays
 	Output   Output
+	// Origins says where each value was given. Decode and Override fill
+	// it; Validate, Where and Errorf read it; Encode ignores it.
+	Origins Origins
 }
 
 // Loop is the plant and the controller structure. The plant is given
@@ -57,7 +72,8 @@ type Overlays struct {
 	DecayLevels, DampingLevels, MsLevels []float64
 	// Marks are design points, each a list of parameter values (--mark).
 	Marks [][]spec.Value
-	// Best names the searches for a best point to run (--best).
+	// Best names the searches for a best point to run, among Searches
+	// (--best).
 	Best []string
 	// MsBound limits those searches to points with Ms at most MsBound;
 	// zero means no limit (--ms-bound).
@@ -65,12 +81,13 @@ type Overlays struct {
 }
 
 // Output names the files written and sizes the image. An empty path
-// means that file is not written.
+// means that file is not written, the image included; "-" as the image
+// means standard output.
 type Output struct {
-	Image string // image, .png or .svg (-o, --out)
-	Data  string // the map as JSON (--data)
-	CSV   string // the map as comma-separated values (--csv)
-	Note  string // a short design note (--note)
+	Image string // image, .png, .svg or .pdf (-o, --out)
+	Data  string // the map as JSON, .json (--data)
+	CSV   string // the map as comma-separated values, .csv (--csv)
+	Note  string // a short design note, .md or .txt (--note)
 	// Title replaces the title naming plant and controller; empty keeps
 	// it (--title).
 	Title string
@@ -84,6 +101,44 @@ const (
 	MinSizeCm = 1
 	MaxSizeCm = 200
 )
+
+// Bounds on what one scenario may ask for, so that a mistyped flag or a
+// stranger's file is refused before any work rather than keeping the
+// tool busy for minutes.
+const (
+	// MaxLevels is the most iso-line levels of one quantity. Each level
+	// is traced over the whole grid and labelled; beyond a dozen or so
+	// the lines of one quantity can no longer be told apart.
+	MaxLevels = 16
+	// MaxMarks is the most design points of one map, so that each gets
+	// its own letter, A to Z (MarkLabel).
+	MaxMarks = 26
+	// MaxFixed is the most fixed parameter values: a controller has a
+	// handful of parameters.
+	MaxFixed = 32
+	// MaxTitleRunes is the longest title, about two lines over a map.
+	MaxTitleRunes = 200
+)
+
+// MarkLabel returns the label of design point i, counting from 0: "A" to
+// "Z". It panics for i outside 0 to MaxMarks−1, which Validate refuses.
+func MarkLabel(i int) string {
+	if i < 0 || i >= MaxMarks {
+		panic(fmt.Sprintf("scenario: mark %d has no label; Validate allows %d marks", i, MaxMarks))
+	}
+	return string(rune('A' + i))
+}
+
+// Names of the searches for a best point.
+const (
+	SearchDecay    = "decay" // the largest decay rate in the window
+	SearchIntegral = "ki"    // the largest integral gain with Ms at most the bound
+)
+
+// Searches returns the names of the searches for a best point, in the
+// order the help lists them. It is the one list Validate, the flags and
+// the help take them from.
+func Searches() []string { return []string{SearchDecay, SearchIntegral} }
 
 // Default returns the scenario that an empty file describes, apart from
 // the plant, which has no default. Its values are the defaults of the

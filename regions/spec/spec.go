@@ -6,7 +6,6 @@ package spec
 
 import (
 	"fmt"
-	"math"
 	"strconv"
 	"strings"
 )
@@ -17,7 +16,9 @@ type Axis struct {
 	Min, Max float64
 }
 
-// ParseAxis reads "name=min:max" with min < max, both finite.
+// ParseAxis reads "name=min:max" with min < max, both finite, and a
+// window that floating point can resolve with a single cell (see
+// CheckWindow; the grid size is checked where it is known).
 func ParseAxis(s string) (Axis, error) {
 	name, rng, ok := strings.Cut(s, "=")
 	name = strings.TrimSpace(name)
@@ -38,6 +39,9 @@ func ParseAxis(s string) (Axis, error) {
 	}
 	if !(a.Min < a.Max) {
 		return Axis{}, fmt.Errorf("%q: minimum %g must be below maximum %g", s, a.Min, a.Max)
+	}
+	if err := CheckWindow(a, 2); err != nil {
+		return Axis{}, fmt.Errorf("%q: %v", s, err)
 	}
 	return a, nil
 }
@@ -113,7 +117,7 @@ func number(s string) (float64, error) {
 	if err != nil {
 		return 0, fmt.Errorf("%q is not a number", s)
 	}
-	if math.IsNaN(v) || math.IsInf(v, 0) {
+	if !finite(v) {
 		return 0, fmt.Errorf("%q is not a finite number", s)
 	}
 	return v, nil
