@@ -13,8 +13,8 @@ test:
 demo: build
 	./bin/gainscape map
 
-# Re-make every image in examples/ from its scenario (run from the top
-# directory: the image paths in the scenarios start with examples/).
+# Re-make every image in examples/ from its scenario (output paths in a
+# scenario are taken from the scenario's own folder).
 examples: build
 	./bin/gainscape map -o examples/demo-pump-pid.png --grid 400x300 --quiet
 	for f in examples/*.toml; do \

@@ -2,14 +2,18 @@ package render
 
 import (
 	"bytes"
+	"encoding/binary"
 	"fmt"
+	"hash/crc32"
 	"io"
+	"math"
 	"path/filepath"
 	"strings"
 
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgpdf"
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"gainscape/internal/safefile"
@@ -21,7 +25,10 @@ import (
 // enough to keep a shaded map well under a megabyte.
 const svgFillDPI = 200
 
-// Write draws f and writes it to w in format "png" or "svg".
+// Write draws f and writes it to w in format "png", "svg" or "pdf". A
+// PNG image records its resolution (f.DPI), so that a word processor
+// inserts it at the size it was drawn for; SVG and PDF are vector
+// formats whose cell fills are embedded as images of svgFillDPI.
 func Write(w io.Writer, format string, f Figure) error {
 	if err := f.check(); err != nil {
 		return err
@@ -31,16 +38,54 @@ func Write(w io.Writer, format string, f Figure) error {
 	fillDPI := 0
 	switch format {
 	case "png":
-		cv = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(f.DPI))}
+		cv = pngCanvas{vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(f.DPI))}, f.DPI}
 	case "svg":
 		cv = svgCanvas{vgsvg.New(f.Width, f.Height)}
 		fillDPI = svgFillDPI
+	case "pdf":
+		pc := vgpdf.New(f.Width, f.Height)
+		pc.EmbedFonts(true)
+		cv = pc
+		fillDPI = svgFillDPI
 	default:
-		return fmt.Errorf("render: unknown image format %q; want \"png\" or \"svg\"", format)
+		return fmt.Errorf("render: unknown image format %q; want \"png\", \"svg\" or \"pdf\"", format)
 	}
 	drawFigure(draw.New(cv), &f, fillDPI)
 	_, err := cv.WriteTo(w)
 	return err
+}
+
+// pngCanvas is a PNG canvas that writes its resolution into the file, as
+// the pHYs chunk of the PNG standard (ISO/IEC 15948, Sec. 11.3.5.3):
+// pixels per metre in both directions, right after the header chunk.
+type pngCanvas struct {
+	vgimg.PngCanvas
+	dpi int
+}
+
+// WriteTo writes the PNG image with its pHYs chunk.
+func (c pngCanvas) WriteTo(w io.Writer) (int64, error) {
+	var buf bytes.Buffer
+	if _, err := c.PngCanvas.WriteTo(&buf); err != nil {
+		return 0, err
+	}
+	b := buf.Bytes()
+	// The 8-byte signature and the 25-byte IHDR chunk come first.
+	const ihdrEnd = 8 + 25
+	if len(b) < ihdrEnd || string(b[12:16]) != "IHDR" {
+		return 0, fmt.Errorf("render: the PNG encoder wrote no header")
+	}
+	ppm := uint32(math.Round(float64(c.dpi) / 0.0254))
+	chunk := make([]byte, 0, 21)
+	chunk = binary.BigEndian.AppendUint32(chunk, 9)
+	chunk = append(chunk, "pHYs"...)
+	chunk = binary.BigEndian.AppendUint32(chunk, ppm)
+	chunk = binary.BigEndian.AppendUint32(chunk, ppm)
+	chunk = append(chunk, 1) // unit: the metre
+	chunk = binary.BigEndian.AppendUint32(chunk, crc32.ChecksumIEEE(chunk[4:]))
+	out := append(append(append([]byte(nil), b[:ihdrEnd]...), chunk...), b[ihdrEnd:]...)
+	n, err := w.Write(out)
+	return int64(n), err
 }
 
 // svgCanvas is an SVG canvas whose embedded images read alike in every
@@ -76,14 +121,14 @@ func (c svgCanvas) WriteTo(w io.Writer) (int64, error) {
 }
 
 // WriteFile draws f to the file at path, in the format its extension
-// names (.png or .svg, in any letter case). It writes to a temporary file
+// names (.png, .svg or .pdf, in any letter case). It writes to a temporary file
 // in the same directory and renames it into place, so a failure never
 // leaves a partial image at path.
 func WriteFile(path string, f Figure) error {
 	ext := filepath.Ext(path)
 	format := strings.ToLower(strings.TrimPrefix(ext, "."))
-	if format != "png" && format != "svg" {
-		return fmt.Errorf("render: %s: unknown image extension %q; use .png or .svg", path, ext)
+	if format != "png" && format != "svg" && format != "pdf" {
+		return fmt.Errorf("render: %s: unknown image extension %q; use .png, .svg or .pdf", path, ext)
 	}
 	if err := f.check(); err != nil {
 		return fmt.Errorf("%w (writing %s)", err, path)

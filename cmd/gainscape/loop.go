@@ -1,6 +1,7 @@
 package main
 
 import (
+	"fmt"
 	"strings"
 
 	"gainscape/regions/expr"
@@ -13,7 +14,36 @@ import (
 type loopFlags struct {
 	plant, num, den string
 	ctrl            string
-	set             string
+	set             []string // every --set, in order
+	timeUnit        string
+}
+
+// fixed reads every --set into one list: repeated flags add to each
+// other, and a parameter given twice must have one value.
+func (f loopFlags) fixed() ([]spec.Value, error) {
+	var out []spec.Value
+	from := map[string]string{}
+	for _, s := range f.set {
+		if strings.TrimSpace(s) == "" {
+			continue
+		}
+		vals, err := spec.ParseValues(s)
+		if err != nil {
+			return nil, userErr("--set: %v", err)
+		}
+		for _, v := range vals {
+			text := fmt.Sprintf("%s=%g", v.Param, v.V)
+			if prev, ok := from[v.Param]; ok {
+				if prev != text {
+					return nil, userErr("--set: %s is given twice, as %s and as %s; give it once", v.Param, prev, text)
+				}
+				continue
+			}
+			from[v.Param] = text
+			out = append(out, v)
+		}
+	}
+	return out, nil
 }
 
 // spec reads the plant and controller flags into a loop description; the
@@ -37,12 +67,10 @@ func (f loopFlags) spec() (study.LoopSpec, error) {
 	default:
 		return ls, userErr("give the plant as --plant EXPR, or as both --num and --den")
 	}
-	if strings.TrimSpace(f.set) != "" {
-		fixed, err := spec.ParseValues(f.set)
-		if err != nil {
-			return ls, userErr("--set: %v", err)
-		}
-		ls.Fixed = fixed
+	fixed, err := f.fixed()
+	if err != nil {
+		return ls, err
 	}
+	ls.Fixed = fixed
 	return ls, nil
 }

@@ -5,8 +5,9 @@
 // Usage:
 //
 //	gainscape map [flags]     draw a stability map (no flags: a built-in demo)
-//	gainscape help [command]  show help
 //	gainscape probe [flags]   margins, poles and robustness of one design point
+//	gainscape help [command]  show help
+//	gainscape version         show the version
 //
 // Run "gainscape help map" or "gainscape help probe" for the flags and
 // worked examples.
@@ -18,18 +19,25 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"os/signal"
+	"strings"
 
+	"github.com/spf13/pflag"
+
+	"gainscape/internal/interrupt"
+	"gainscape/internal/safefile"
+	"gainscape/regions/scenario"
 	"gainscape/regions/study"
 )
 
+// version is the version of this build.
+const version = "0.9.0"
+
 // Exit codes: 2 for a problem with what the user gave (flags, files,
-// expressions), 1 for a failure of the tool itself, 130 when interrupted
-// (128 + SIGINT, the shell convention).
+// expressions), 1 for a failure of the tool itself, 128 + the signal
+// number when interrupted (the shell convention).
 const (
-	exitInternal    = 1
-	exitUsage       = 2
-	exitInterrupted = 130
+	exitInternal = 1
+	exitUsage    = 2
 )
 
 // usageError marks an error caused by the user's input.
@@ -46,24 +54,26 @@ const caution = study.Caution
 const overview = `gainscape — stability maps of feedback loops in controller-parameter planes
 
 Commands:
-  map     draw the stable region of a loop in the plane of two controller
-          parameters, its edges and the oscillation frequency along them
-  probe   how stable and how robust one design point is: sign array, poles,
-          margins, Ms, distance to the nearest edge; or, with --vary, the
-          stable intervals of one parameter
-  help    show help for a command
+  map      draw the stable region of a loop in the plane of two controller
+           parameters, its edges and the oscillation frequency along them
+  probe    how stable and how robust one design point is: sign array, poles,
+           margins, Ms, distance to the nearest edge; or, with --vary, the
+           stable intervals of one parameter
+  help     show help for a command
+  version  show the version
 
 With no flags, "gainscape map" draws a built-in demo scenario.
 Run "gainscape help map" or "gainscape help probe" for every flag with examples.
 `
 
-// stdoutFile is where "-o -" writes the image.
-var stdoutFile io.Writer = os.Stdout
+// commands are the subcommands, for help and for suggestions on a typo.
+var commands = []string{"map", "probe", "help", "version"}
 
 func main() {
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
-	defer stop()
-	os.Exit(run(ctx, os.Args[1:], os.Stdout, os.Stderr))
+	ctx, stop := interrupt.Watch(context.Background(), interrupt.DefaultGrace, safefile.AbortAll)
+	code := run(ctx, os.Args[1:], os.Stdout, os.Stderr)
+	stop()
+	os.Exit(code)
 }
 
 // run executes one command line and returns the exit code.
@@ -79,28 +89,126 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	case "probe":
 		err = runProbe(ctx, args[1:], stdout)
 	case "help", "-h", "--help":
-		switch {
-		case len(args) > 1 && args[1] == "map":
-			fmt.Fprint(stdout, mapHelp)
-		case len(args) > 1 && args[1] == "probe":
-			fmt.Fprint(stdout, probeHelp)
-		default:
-			fmt.Fprint(stdout, overview)
+		topic := ""
+		if len(args) > 1 {
+			topic = args[1]
 		}
+		return printHelp(stdout, stderr, topic)
+	case "version", "--version":
+		fmt.Fprintln(stdout, "gainscape", version)
 		return 0
 	default:
-		err = userErr("unknown command %q (commands: map, probe, help)", args[0])
+		err = userErr("unknown command %q%s (commands: %s)", args[0], suggest(args[0], commands), strings.Join(commands, ", "))
 	}
-	if err == nil {
+	return report(ctx, err, stderr)
+}
+
+// printHelp prints the help of topic, or the overview.
+func printHelp(stdout, stderr io.Writer, topic string) int {
+	switch topic {
+	case "map":
+		fmt.Fprint(stdout, mapHelp)
+	case "probe":
+		fmt.Fprint(stdout, probeHelp)
+	case "", "help", "version":
+		fmt.Fprint(stdout, overview)
+	default:
+		fmt.Fprintf(stderr, "gainscape: no help for %q%s\n", topic, suggest(topic, commands))
+		return exitUsage
+	}
+	return 0
+}
+
+// errHelp reports that the user asked a command for its help.
+var errHelp = errors.New("help")
+
+// report prints err, if any, and returns the exit code.
+func report(ctx context.Context, err error, stderr io.Writer) int {
+	if ie := interrupt.Cause(ctx); ie != nil {
+		fmt.Fprintln(stderr, "gainscape:", ie.Error()+"; no file was written or changed")
+		return ie.ExitCode()
+	}
+	if err == nil || errors.Is(err, errHelp) {
 		return 0
 	}
-	fmt.Fprintln(stderr, "gainscape:", err)
-	if errors.Is(err, context.Canceled) {
-		return exitInterrupted
-	}
+	fmt.Fprintln(stderr, "gainscape:", firstLines(err))
 	var ue usageError
-	if errors.As(err, &ue) || study.IsInput(err) {
+	var se *scenario.Error
+	if errors.As(err, &ue) || study.IsInput(err) || errors.As(err, &se) {
 		return exitUsage
 	}
 	return exitInternal
+}
+
+// firstLines returns the message of err, at most three lines.
+func firstLines(err error) string {
+	lines := strings.Split(err.Error(), "\n")
+	if len(lines) > 3 {
+		lines = lines[:3]
+	}
+	return strings.Join(lines, "\n")
+}
+
+// parseFlags parses args into fs, turning -h and --help into errHelp
+// after printing help, and flag errors into usage errors that suggest
+// the nearest flag.
+func parseFlags(fs *pflag.FlagSet, args []string, help string, stdout io.Writer) error {
+	fs.BoolP("help", "h", false, "print this help")
+	if err := fs.Parse(args); err != nil {
+		msg := err.Error()
+		if name, ok := strings.CutPrefix(msg, "unknown flag: --"); ok {
+			var names []string
+			fs.VisitAll(func(f *pflag.Flag) { names = append(names, f.Name) })
+			msg += suggest(name, names)
+		}
+		return userErr("%s (see gainscape help %s)", msg, fs.Name())
+	}
+	if h, _ := fs.GetBool("help"); h {
+		fmt.Fprint(stdout, help)
+		return errHelp
+	}
+	if fs.NArg() > 0 {
+		return userErr("unexpected argument %q (see gainscape help %s)", fs.Arg(0), fs.Name())
+	}
+	return nil
+}
+
+// suggest returns "; did you mean X?" for the candidate nearest word, if
+// one is near enough to be a typing slip, or "".
+func suggest(word string, candidates []string) string {
+	best, dist := "", len(word)/2+1
+	for _, c := range candidates {
+		if d := editDistance(strings.ToLower(word), c); d < dist {
+			best, dist = c, d
+		}
+	}
+	if best == "" {
+		return ""
+	}
+	if strings.HasPrefix(word, "-") || len(candidates) > len(commands) {
+		return fmt.Sprintf("; did you mean --%s?", best)
+	}
+	return fmt.Sprintf("; did you mean %q?", best)
+}
+
+// editDistance is the Levenshtein distance between a and b.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur := make([]int, len(rb)+1)
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev = cur
+	}
+	return prev[len(rb)]
 }

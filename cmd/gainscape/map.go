@@ -2,9 +2,11 @@ package main
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
@@ -12,7 +14,9 @@ import (
 
 	"gainscape/internal/safefile"
 	"gainscape/regions/export"
+	"gainscape/regions/family"
 	"gainscape/regions/scenario"
+	"gainscape/regions/spec"
 	"gainscape/regions/study"
 	"gainscape/render"
 )
@@ -41,8 +45,10 @@ type mapFlags struct {
 	csv, note      string
 	format, title  string
 	size           string
+	dpi            int
 	quiet          bool
 	scenario, save string
+	allowOutside   bool
 	decay          bool
 	decayLevels    string
 	dampingLevels  string
@@ -61,39 +67,39 @@ func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
 	fs.StringVar(&f.num, "num", "", "plant numerator coefficients, highest power first")
 	fs.StringVar(&f.den, "den", "", "plant denominator coefficients, highest power first")
 	fs.StringVar(&f.ctrl, "ctrl", d.Loop.Controller, "controller family")
-	fs.StringVar(&f.set, "set", "", "fixed parameter values")
+	fs.StringArrayVar(&f.set, "set", nil, "fixed parameter values (repeatable)")
+	fs.StringVar(&f.timeUnit, "time-unit", d.Loop.TimeUnit, "unit of time of s")
 	fs.StringVar(&f.x, "x", axisText(d.Axes.X), "horizontal axis NAME=MIN:MAX")
 	fs.StringVar(&f.y, "y", axisText(d.Axes.Y), "vertical axis NAME=MIN:MAX")
 	fs.StringVar(&f.grid, "grid", fmt.Sprintf("%dx%d", d.Axes.Columns, d.Axes.Rows), "grid nodes NXxNY")
 	fs.IntVar(&f.workers, "workers", 0, "goroutines (0 = all cores)")
-	fs.StringVarP(&f.out, "out", "o", d.Output.Image, "image file (.png or .svg, - for stdout)")
+	fs.StringVarP(&f.out, "out", "o", d.Output.Image, "image file (.png, .svg or .pdf, - for stdout)")
 	fs.StringVar(&f.data, "data", "", "JSON data file")
 	fs.StringVar(&f.csv, "csv", "", "CSV file of the boundary polylines")
 	fs.StringVar(&f.note, "note", "", "Markdown note for a design document")
-	fs.StringVar(&f.format, "format", "", "image format png or svg")
+	fs.StringVar(&f.format, "format", "", "image format png, svg or pdf")
 	fs.StringVar(&f.title, "title", "", "figure title")
 	fs.StringVar(&f.size, "size", fmt.Sprintf("%gx%g", d.Output.WidthCm, d.Output.HeightCm), "image size WxH in centimetres")
+	fs.IntVar(&f.dpi, "dpi", d.Output.DPI, "resolution of a PNG image")
 	fs.BoolVar(&f.quiet, "quiet", false, "print nothing but errors")
 	fs.StringVar(&f.scenario, "scenario", "", "scenario file to read")
 	fs.StringVar(&f.save, "save-scenario", "", "write the scenario of this map to a file")
+	fs.BoolVar(&f.allowOutside, scenario.OutsidePathsFlag, false, "let a scenario file write outside its own folder")
 	fs.BoolVar(&f.decay, "decay", d.Overlays.Decay, "shade the stable region by decay rate")
 	fs.StringVar(&f.decayLevels, "decay-levels", "", "decay rates to draw as iso-lines")
 	fs.StringVar(&f.dampingLevels, "damping-levels", "", "damping ratios to draw as iso-lines")
 	fs.StringVar(&f.msLevels, "ms-levels", numbersText(d.Overlays.MsLevels), "Ms values to draw as iso-lines, or none")
 	fs.StringArrayVar(&f.marks, "mark", nil, "design point to mark, NAME=V,NAME=V (repeatable)")
 	fs.StringVar(&f.best, "best", "", "best-point searches: decay, ki")
-	fs.Float64Var(&f.msBound, "ms-bound", d.Overlays.MsBound, "Ms limit of the ki search")
+	fs.Float64Var(&f.msBound, "ms-bound", d.Overlays.MsBound, "Ms limit of the searches")
 	return fs
 }
 
 func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error {
 	var f mapFlags
 	fs := newMapFlagSet(&f)
-	if err := fs.Parse(args); err != nil {
-		return userErr("%v (see gainscape help map)", err)
-	}
-	if fs.NArg() > 0 {
-		return userErr("unexpected argument %q (see gainscape help map)", fs.Arg(0))
+	if err := parseFlags(fs, args, mapHelp, stdout); err != nil {
+		return err
 	}
 	if f.workers < 0 {
 		return userErr("--workers %d: must be 0 (all cores) or more", f.workers)
@@ -102,20 +108,40 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if err != nil {
 		return err
 	}
+	format, err := sc.ImageFormat(f.format)
+	if err != nil {
+		return err
+	}
 	job, err := study.NewMap(sc)
 	if err != nil {
-		return err
+		return placed(sc, err)
 	}
-	format, err := imageFormat(sc.Output.Image, f.format)
-	if err != nil {
-		return err
+
+	plan := safefile.NewPlan()
+	outputs := map[string]*safefile.Output{}
+	for _, o := range []struct{ key, path string }{
+		{"output.image", sc.Output.Image}, {"output.data", sc.Output.Data},
+		{"output.csv", sc.Output.CSV}, {"output.note", sc.Output.Note},
+	} {
+		if o.path != "" {
+			outputs[o.key] = plan.Add(sc.Where(o.key), o.path)
+		}
 	}
-	if err := checkOutputs(sc.Output, f.save); err != nil {
-		return err
+	if f.save != "" {
+		outputs["save"] = plan.Add("--save-scenario", f.save)
 	}
-	if sc.Output.Image == "-" && !f.quiet {
-		// The image goes to stdout, so the report goes to stderr.
-		stdout = stderr
+	if f.scenario != "" {
+		plan.AddInput("--scenario", f.scenario)
+	}
+	if err := plan.Check(); err != nil {
+		return usageError{err}
+	}
+	defer plan.Abort()
+	for _, o := range outputs {
+		if o.Path() == safefile.Stdout && !f.quiet {
+			// An output goes to stdout, so the report goes to stderr.
+			stdout = stderr
+		}
 	}
 	if !f.quiet {
 		for _, w := range job.Warnings() {
@@ -126,25 +152,29 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	start := time.Now()
 	res, err := job.Run(ctx, study.Options{Workers: f.workers, Progress: progressFor(stderr, f.quiet)})
 	if err != nil {
-		return err
+		return placed(sc, err)
 	}
 	elapsed := time.Since(start)
 
-	fig := figureOf(res, sc, f.demoLabel)
-	if sc.Output.Image == "-" {
-		if err := render.Write(stdoutFile, format, fig); err != nil {
-			return err
+	writers := map[string]func(io.Writer) error{
+		"output.image": func(w io.Writer) error { return render.Write(w, format, figureOf(res, sc, f.demoLabel)) },
+		"output.data":  func(w io.Writer) error { return export.Write(w, res.Data()) },
+		"output.csv":   func(w io.Writer) error { return writeCSV(w, res) },
+		"output.note":  func(w io.Writer) error { return writeNote(w, res, sc, noteLink(sc.Output)) },
+		"save":         func(w io.Writer) error { return scenario.EncodeFile(w, sc, f.save) },
+	}
+	for _, key := range []string{"output.image", "output.data", "output.csv", "output.note", "save"} {
+		if o := outputs[key]; o != nil {
+			if err := o.Write(ctx, writers[key]); err != nil {
+				return err
+			}
 		}
-	} else if err := safefile.Write(sc.Output.Image, func(w io.Writer) error { return render.Write(w, format, fig) }); err != nil {
+	}
+	if err := ctx.Err(); err != nil {
 		return err
 	}
-	if err := writeExports(res, sc); err != nil {
+	if err := plan.Commit(); err != nil {
 		return err
-	}
-	if f.save != "" {
-		if err := scenario.Save(f.save, sc); err != nil {
-			return userErr("--save-scenario: %v", err)
-		}
 	}
 	if !f.quiet {
 		printSummary(stdout, res, sc, f, elapsed)
@@ -152,103 +182,99 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	return nil
 }
 
+// noteLink is the image as a note beside it links it, or "" when there is
+// no image file.
+func noteLink(o scenario.Output) string {
+	if o.Image == "" || o.Image == safefile.Stdout || o.Note == safefile.Stdout {
+		return ""
+	}
+	rel, err := filepath.Rel(filepath.Dir(o.Note), o.Image)
+	if err != nil {
+		return ""
+	}
+	return filepath.ToSlash(rel)
+}
+
 // resolveScenario merges the built-in demo, a scenario file and the flags
-// (flags win) into one validated scenario.
+// (flags win) into one validated scenario with its paths resolved.
 func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) {
 	sc := scenario.Default()
 	given := fs.Changed
 	if f.scenario != "" {
 		var err error
 		if sc, err = scenario.Load(f.scenario); err != nil {
-			return sc, userErr("--scenario: %v", err)
+			return sc, err
 		}
-	} else {
-		// Without a file every flag counts, defaults included.
-		given = func(string) bool { return true }
-		if f.plant == "" && f.num == "" && f.den == "" {
-			f.demoLabel = demo.label
-			f.plant = demo.plant
-			for name, v := range map[string]*string{"ctrl": &f.ctrl, "set": &f.set, "x": &f.x, "y": &f.y, "out": &f.out} {
-				if !fs.Changed(name) {
-					*v = map[string]string{"ctrl": demo.ctrl, "set": demo.set, "x": demo.x, "y": demo.y, "out": demo.out}[name]
-				}
+	} else if !fs.Changed("plant") && !fs.Changed("num") && !fs.Changed("den") {
+		// The demo fills what the user did not give: its plant always,
+		// and its controller, fixed values and window unless another
+		// controller was asked for.
+		f.demoLabel = demo.label
+		f.plant = demo.plant
+		filled := map[string]bool{"plant": true}
+		if !fs.Changed("out") {
+			f.out, filled["out"] = demo.out, true
+		}
+		if !fs.Changed("ctrl") {
+			f.ctrl, filled["ctrl"] = demo.ctrl, true
+			if !fs.Changed("set") {
+				f.set, filled["set"] = []string{demo.set}, true
+			}
+			if !fs.Changed("x") && !fs.Changed("y") {
+				f.x, f.y, filled["x"], filled["y"] = demo.x, demo.y, true, true
 			}
 		}
+		given = func(name string) bool { return fs.Changed(name) || filled[name] }
 	}
 	fromFlags, err := f.toScenario(given)
 	if err != nil {
 		return sc, err
 	}
 	sc.Override(fromFlags, given)
+	defaultAxes(&sc)
+	if err := sc.ResolvePaths(f.allowOutside); err != nil {
+		return sc, err
+	}
 	if err := sc.Validate(); err != nil {
-		return sc, userErr("%v", firstLine(err))
+		return sc, err
 	}
 	return sc, nil
 }
 
-// imageFormat returns "png" or "svg" from --format or the image extension.
-func imageFormat(image, format string) (string, error) {
-	if format != "" {
-		switch v := strings.ToLower(format); v {
-		case "png", "svg":
-			return v, nil
-		}
-		return "", userErr("--format %q: use png or svg", format)
+// defaultAxes gives a map whose axes nobody chose the first two
+// parameters of its controller, so that --ctrl lead alone maps k and z
+// rather than failing on kp, a parameter the user never named.
+func defaultAxes(sc *scenario.Scenario) {
+	if sc.Given("axes.x") || sc.Given("axes.y") {
+		return
 	}
-	if image == "-" {
-		return "png", nil
+	fam, err := family.Lookup(sc.Loop.Controller)
+	if err != nil || len(fam.Params()) < 2 {
+		return
 	}
-	switch ext := strings.ToLower(filepath.Ext(image)); ext {
-	case ".png", ".svg":
-		return ext[1:], nil
+	ps := fam.Params()
+	d := scenario.Default().Axes
+	if ps[0].Name == d.X.Param && ps[1].Name == d.Y.Param {
+		return
 	}
-	return "", userErr("--out %q: unknown image type %q; use .png or .svg (or --format)", image, filepath.Ext(image))
+	sc.Axes.X = spec.Axis{Param: ps[0].Name, Min: d.X.Min, Max: d.X.Max}
+	sc.Axes.Y = spec.Axis{Param: ps[1].Name, Min: d.Y.Min, Max: d.Y.Max}
 }
 
-// checkOutputs rejects output paths that cannot be written before any
-// work is done.
-func checkOutputs(o scenario.Output, save string) error {
-	paths := []struct{ flag, path string }{{"--out", o.Image}, {"--data", o.Data}, {"--csv", o.CSV}, {"--note", o.Note}, {"--save-scenario", save}}
-	for _, p := range paths {
-		if p.path == "" || (p.flag == "--out" && p.path == "-") {
-			continue
-		}
-		if err := dirExists(p.path); err != nil {
-			return userErr("%s %q: %v", p.flag, p.path, err)
-		}
+// placed returns err with an input error of the study placed where the
+// faulty value was given: the flag, or the scenario file, line and key.
+func placed(sc scenario.Scenario, err error) error {
+	var ie *study.InputError
+	if !errors.As(err, &ie) || ie.Key == "" || !sc.Given(ie.Key) {
+		return err
 	}
-	return nil
-}
-
-// firstLine returns the first line of a possibly joined error.
-func firstLine(err error) string {
-	s, _, _ := strings.Cut(err.Error(), "\n")
-	return s
-}
-
-// writeExports writes the data, CSV and note files a scenario asks for.
-func writeExports(res *study.MapResult, sc scenario.Scenario) error {
-	o := sc.Output
-	if o.CSV != "" {
-		if err := safefile.Write(o.CSV, func(w io.Writer) error { return writeCSV(w, res) }); err != nil {
-			return err
-		}
+	where := sc.Where(ie.Key)
+	if strings.HasPrefix(where, "--") {
+		return err
 	}
-	if o.Note != "" {
-		link := ""
-		if o.Image != "-" {
-			if rel, err := filepath.Rel(filepath.Dir(o.Note), o.Image); err == nil {
-				link = filepath.ToSlash(rel)
-			}
-		}
-		if err := safefile.Write(o.Note, func(w io.Writer) error { return writeNote(w, res, sc, link) }); err != nil {
-			return err
-		}
+	msg := ie.Err.Error()
+	if ie.Value != "" && !slices.Contains([]string{"loop.plant", "loop.numerator"}, ie.Key) {
+		msg = ie.Value + ": " + msg
 	}
-	if o.Data != "" {
-		if err := safefile.Write(o.Data, func(w io.Writer) error { return export.Write(w, res.Data()) }); err != nil {
-			return err
-		}
-	}
-	return nil
+	return usageError{fmt.Errorf("%s: %s", where, msg)}
 }

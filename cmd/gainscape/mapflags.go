@@ -8,7 +8,6 @@ import (
 	"gainscape/regions/expr"
 	"gainscape/regions/scenario"
 	"gainscape/regions/spec"
-	"gainscape/regions/study"
 )
 
 // toScenario reads the flags into a scenario. Only flags for which given
@@ -38,11 +37,12 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 	if f.plant != "" && (f.num != "" || f.den != "") {
 		return s, userErr("--plant cannot be combined with --num/--den; give the plant one way")
 	}
-	if given("set") && strings.TrimSpace(f.set) != "" {
-		if s.Fixed, err = spec.ParseValues(f.set); err != nil {
-			return s, userErr("--set: %v", err)
+	if given("set") {
+		if s.Fixed, err = f.fixed(); err != nil {
+			return s, err
 		}
 	}
+	s.Loop.TimeUnit = f.timeUnit
 	if given("x") {
 		if s.Axes.X, err = spec.ParseAxis(f.x); err != nil {
 			return s, userErr("--x: %v", err)
@@ -58,7 +58,7 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 			return s, userErr("--grid: %v", err)
 		}
 	}
-	s.Output = scenario.Output{Image: f.out, Data: f.data, CSV: f.csv, Note: f.note, Title: f.title}
+	s.Output = scenario.Output{Image: f.out, Data: f.data, CSV: f.csv, Note: f.note, Title: f.title, DPI: f.dpi}
 	if given("size") {
 		if s.Output.WidthCm, s.Output.HeightCm, err = parseSize(f.size); err != nil {
 			return s, userErr("--size %q: %v", f.size, err)
@@ -82,21 +82,12 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 		s.Overlays.Marks = append(s.Overlays.Marks, v)
 	}
 	for _, b := range strings.FieldsFunc(f.best, func(r rune) bool { return r == ',' || r == ' ' }) {
-		b = strings.ToLower(b)
-		if b != bestDecay && b != bestIntegral {
-			return s, userErr("--best %q: unknown search %q (choose %s or %s)", f.best, b, bestDecay, bestIntegral)
-		}
-		s.Overlays.Best = append(s.Overlays.Best, b)
+		s.Overlays.Best = append(s.Overlays.Best, strings.ToLower(b))
 	}
 	s.Overlays.MsBound = f.msBound
 	return s, nil
 }
 
-// Names of the best-point searches.
-const (
-	bestDecay    = study.BestDecay
-	bestIntegral = study.BestIntegral
-)
 
 // numberList reads "0.2, 0.5" (or "none" or "" for no values).
 func numberList(flag, s string) ([]float64, error) {

@@ -34,8 +34,8 @@ func TestInterruptLeavesNoFile(t *testing.T) {
 		cmd.Process.Kill()
 		t.Fatal("the command did not stop after an interrupt")
 	}
-	if code := cmd.ProcessState.ExitCode(); code != exitInterrupted {
-		t.Fatalf("exit code %d; want %d (stderr %q)", code, exitInterrupted, stderr.String())
+	if code := cmd.ProcessState.ExitCode(); code != 128+int(syscall.SIGINT) {
+		t.Fatalf("exit code %d; want %d (stderr %q)", code, 128+int(syscall.SIGINT), stderr.String())
 	}
 	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
 		t.Fatalf("files left after the interrupt: %v", entries)

@@ -65,16 +65,14 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.num, "num", "", "plant numerator coefficients")
 	fs.StringVar(&f.den, "den", "", "plant denominator coefficients")
 	fs.StringVar(&f.ctrl, "ctrl", "pid", "controller family")
-	fs.StringVar(&f.set, "set", "", "parameter values")
+	fs.StringArrayVar(&f.set, "set", nil, "parameter values (repeatable)")
+	fs.StringVar(&f.timeUnit, "time-unit", "s", "unit of time of s")
 	fs.StringVar(&f.x, "x", "", "first parameter of the fragility plane")
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
 	fs.BoolVar(&f.json, "json", false, "print JSON")
-	if err := fs.Parse(args); err != nil {
-		return userErr("%v (see gainscape help probe)", err)
-	}
-	if fs.NArg() > 0 {
-		return userErr("unexpected argument %q (see gainscape help probe)", fs.Arg(0))
+	if err := parseFlags(fs, args, probeHelp, stdout); err != nil {
+		return err
 	}
 	ls, err := f.spec()
 	if err != nil {

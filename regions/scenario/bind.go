@@ -42,6 +42,19 @@ func (d intoNumber) UnmarshalTOML(v any) error {
 	return nil
 }
 
+// intoInt reads a whole number.
+type intoInt struct{ p *int }
+
+// UnmarshalTOML implements toml.Unmarshaler.
+func (d intoInt) UnmarshalTOML(v any) error {
+	n, ok := v.(int64)
+	if !ok || n < math.MinInt32 || n > math.MaxInt32 {
+		return expected("a whole number", v)
+	}
+	*d.p = int(n)
+	return nil
+}
+
 // number is a map value read like intoNumber; the [fixed] table is a map
 // from parameter names to numbers.
 type number float64

@@ -178,7 +178,8 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			Numerator   intoNumbers `toml:"numerator"`
 			Denominator intoNumbers `toml:"denominator"`
 			Controller  intoString  `toml:"controller"`
-		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}},
+			TimeUnit    intoString  `toml:"time_unit"`
+		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit}},
 		"axes": &struct {
 			X    intoAxis `toml:"x"`
 			Y    intoAxis `toml:"y"`
@@ -202,8 +203,9 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			Title    intoString `toml:"title"`
 			WidthCm  intoNumber `toml:"width_cm"`
 			HeightCm intoNumber `toml:"height_cm"`
+			DPI      intoInt    `toml:"dpi"`
 		}{intoString{&o.Image}, intoString{&o.Data}, intoString{&o.CSV}, intoString{&o.Note}, intoString{&o.Title},
-			intoNumber{&o.WidthCm}, intoNumber{&o.HeightCm}},
+			intoNumber{&o.WidthCm}, intoNumber{&o.HeightCm}, intoInt{&o.DPI}},
 	}
 }
 

@@ -58,6 +58,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 		fmt.Fprintf(&b, "denominator = %s\n", formatList(l.Denominator))
 	}
 	fmt.Fprintf(&b, "controller = %s\n", quote(l.Controller))
+	fmt.Fprintf(&b, "time_unit = %s    # the unit of time of s: labels only\n", quote(l.TimeUnit))
 
 	a := s.Axes
 	b.WriteString("\n[axes]\n")
@@ -97,6 +98,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 	fmt.Fprintf(&b, "title = %s    # empty: plant and controller\n", quote(out.Title))
 	fmt.Fprintf(&b, "width_cm = %s\n", formatNumber(out.WidthCm))
 	fmt.Fprintf(&b, "height_cm = %s\n", formatNumber(out.HeightCm))
+	fmt.Fprintf(&b, "dpi = %d    # resolution of a PNG image\n", out.DPI)
 
 	_, err := io.WriteString(w, b.String())
 	return err

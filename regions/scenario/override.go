@@ -19,6 +19,7 @@ var overrides = []struct {
 	{"den", []string{"loop.denominator"}, func(s, o *Scenario) { s.Loop.Denominator = o.Loop.Denominator }},
 	{"plant", []string{"loop.plant"}, func(s, o *Scenario) { s.Loop.Plant = o.Loop.Plant }},
 	{"ctrl", []string{"loop.controller"}, func(s, o *Scenario) { s.Loop.Controller = o.Loop.Controller }},
+	{"time-unit", []string{"loop.time_unit"}, func(s, o *Scenario) { s.Loop.TimeUnit = o.Loop.TimeUnit }},
 	{"set", nil, func(s, o *Scenario) { s.Fixed = mergeValues(s.Fixed, o.Fixed) }},
 	{"x", []string{"axes.x"}, func(s, o *Scenario) { s.Axes.X = o.Axes.X }},
 	{"y", []string{"axes.y"}, func(s, o *Scenario) { s.Axes.Y = o.Axes.Y }},
@@ -31,6 +32,7 @@ var overrides = []struct {
 	{"size", []string{"output.width_cm", "output.height_cm"}, func(s, o *Scenario) {
 		s.Output.WidthCm, s.Output.HeightCm = o.Output.WidthCm, o.Output.HeightCm
 	}},
+	{"dpi", []string{"output.dpi"}, func(s, o *Scenario) { s.Output.DPI = o.Output.DPI }},
 	{"decay", []string{"overlays.decay"}, func(s, o *Scenario) { s.Overlays.Decay = o.Overlays.Decay }},
 	{"decay-levels", []string{"overlays.decay_levels"}, func(s, o *Scenario) { s.Overlays.DecayLevels = o.Overlays.DecayLevels }},
 	{"damping-levels", []string{"overlays.damping_levels"}, func(s, o *Scenario) { s.Overlays.DampingLevels = o.Overlays.DampingLevels }},

@@ -32,7 +32,7 @@ func tank() Scenario {
 		MsBound:       1.6,
 	}
 	s.Output = Output{Image: "tank.svg", Data: "tank.json", CSV: "tank.csv", Note: "tank.md",
-		Title: "Heated tank, PID", WidthCm: 18, HeightCm: 13.5}
+		Title: "Heated tank, PID", WidthCm: 18, HeightCm: 13.5, DPI: 300}
 	return s
 }
 

@@ -52,6 +52,10 @@ type Loop struct {
 	Numerator, Denominator []float64
 	// Controller is a controller family name such as "pid" (--ctrl).
 	Controller string
+	// TimeUnit is the unit of time of the plant's s (--time-unit): one of
+	// TimeUnits, "s" by default. It labels frequencies (rad per unit),
+	// decay rates (1 per unit) and periods; the numbers do not change.
+	TimeUnit string
 }
 
 // Axes is the window: the two swept parameters and the grid over them.
@@ -93,7 +97,20 @@ type Output struct {
 	Title string
 	// WidthCm and HeightCm are the image size in centimetres.
 	WidthCm, HeightCm float64
+	// DPI is the resolution of a PNG image, written into the file so that
+	// a document inserts it at its physical size (--dpi).
+	DPI int
 }
+
+// TimeUnits lists the units of time a scenario may name, as written in
+// labels.
+var TimeUnits = []string{"s", "ms", "us", "min", "h"}
+
+// DPI limits of PNG output.
+const (
+	MinDPI = 50
+	MaxDPI = 1200
+)
 
 // Image size limits in centimetres, wide enough for a slide or a poster
 // and narrow enough to catch a size given in pixels or millimetres.
@@ -146,13 +163,13 @@ func Searches() []string { return []string{SearchDecay, SearchIntegral} }
 // robustness targets.
 func Default() Scenario {
 	return Scenario{
-		Loop: Loop{Controller: "pid"},
+		Loop: Loop{Controller: "pid", TimeUnit: "s"},
 		Axes: Axes{
 			X:       spec.Axis{Param: "kp", Min: 0, Max: 10},
 			Y:       spec.Axis{Param: "ki", Min: 0, Max: 5},
 			Columns: 300, Rows: 225,
 		},
 		Overlays: Overlays{MsLevels: []float64{1.4, 2.0}},
-		Output:   Output{Image: "gainscape-map.png", WidthCm: 16, HeightCm: 12},
+		Output:   Output{Image: "gainscape-map.png", WidthCm: 16, HeightCm: 12, DPI: 200},
 	}
 }

@@ -68,6 +68,9 @@ func (l Loop) validate(v *validator) {
 		v.add("loop.controller", "%s: no controller family; give one such as \"pid\"", strconv.Quote(l.Controller))
 	}
 	v.text("loop.controller", l.Controller)
+	if !slices.Contains(TimeUnits, l.TimeUnit) {
+		v.add("loop.time_unit", "%s is not a unit of time; use one of %s", quoteShort(l.TimeUnit), strings.Join(TimeUnits, ", "))
+	}
 }
 
 func (a Axes) validate(v *validator) {
@@ -161,6 +164,9 @@ func (o Output) validate(v *validator) {
 		if !(d.cm >= MinSizeCm && d.cm <= MaxSizeCm) {
 			v.add(d.key, "%s cm is outside %d to %d cm", formatNumber(d.cm), MinSizeCm, MaxSizeCm)
 		}
+	}
+	if o.DPI < MinDPI || o.DPI > MaxDPI {
+		v.add("output.dpi", "%d dots per inch is outside %d to %d", o.DPI, MinDPI, MaxDPI)
 	}
 }
 
