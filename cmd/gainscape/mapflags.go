@@ -88,7 +88,6 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 	return s, nil
 }
 
-
 // numberList reads "0.2, 0.5" (or "none" or "" for no values).
 func numberList(flag, s string) ([]float64, error) {
 	s = strings.TrimSpace(s)
