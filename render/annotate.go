@@ -96,7 +96,7 @@ func (a annotations) place(area vg.Rectangle, trX, trY transform) layout {
 	}
 	lay.labels = placeIsoLabels(pl, levels, lay.symbols)
 	markLabels := placeMarkLabels(pl, marks)
-	lay.labels = append(lay.labels, placeOmegaLabels(pl, curves)...)
+	lay.labels = append(lay.labels, placeOmegaLabels(pl, curves, a.fig.FreqUnit)...)
 	for _, l := range markLabels {
 		if l.leader {
 			lay.leaders = append(lay.leaders, l)
@@ -159,8 +159,9 @@ func (a annotations) isoTexts(pl *placer, trX, trY transform) []isoText {
 // placeOmegaLabels writes ω along every complex-pair edge at intervals
 // of omegaSpacing (at least once where there is room), and "ω=0" once on
 // every real-root edge.
-func placeOmegaLabels(pl *placer, curves []curvePath) []drawnLabel {
+func placeOmegaLabels(pl *placer, curves []curvePath, unit string) []drawnLabel {
 	style := centredStyle(labelSize, inkColour)
+	formatOmega := func(w float64) string { return omegaText(w, unit) }
 	box := func(pt vg.Point, w float64) (vg.Rectangle, bool) {
 		if !finite(w) {
 			return vg.Rectangle{}, false
@@ -200,19 +201,26 @@ func toLabels(sites []site, style text.Style, format func(float64) string) []dra
 	return out
 }
 
-// formatOmega writes a frequency with three significant digits, keeping
-// trailing zeros so neighbouring labels read alike: "ω=1.83", "ω=0.700",
-// "ω=12.5"; very large or small values use an exponent.
-func formatOmega(w float64) string {
+// omegaText writes a frequency with three significant digits, keeping
+// trailing zeros so neighbouring labels read alike, and its unit:
+// "ω=1.83 rad/s", "ω=0.700 rad/s", "ω=12.5 rad/s"; very large or small
+// values use an exponent; ω = 0 needs no unit.
+func omegaText(w float64, unit string) string {
 	a := math.Abs(w)
+	var num string
 	switch {
 	case w == 0:
 		return "ω=0"
 	case a >= 1e4 || a < 1e-3:
-		return "ω=" + strconv.FormatFloat(w, 'g', 3, 64)
+		num = strconv.FormatFloat(w, 'g', 3, 64)
+	default:
+		decimals := max(0, 2-int(math.Floor(math.Log10(a))))
+		num = strconv.FormatFloat(w, 'f', decimals, 64)
 	}
-	decimals := max(0, 2-int(math.Floor(math.Log10(a))))
-	return "ω=" + strconv.FormatFloat(w, 'f', decimals, 64)
+	if unit == "" {
+		return "ω=" + num
+	}
+	return "ω=" + num + " " + unit
 }
 
 // formatNumber writes a level as the caller would: the shortest form

@@ -36,6 +36,9 @@ type Figure struct {
 	// Notes are short lines set under the title, such as the fixed
 	// parameters or a caution.
 	Notes []string
+	// FreqUnit is the unit written after every ω on an edge, such as
+	// "rad/s"; empty writes none.
+	FreqUnit string
 	// XLabel and YLabel title the axes; empty means the axis parameter
 	// name.
 	XLabel, YLabel string

@@ -9,7 +9,7 @@ import (
 
 // omegaBoxFor is the ω label box used on the map.
 func omegaBoxFor(pt vg.Point, w float64) (vg.Rectangle, bool) {
-	return labelBox(centredStyle(labelSize, inkColour), formatOmega(w), pt), true
+	return labelBox(centredStyle(labelSize, inkColour), omegaText(w, ""), pt), true
 }
 
 // checkPlaced fails if any two boxes overlap or one leaves the area.
@@ -108,8 +108,8 @@ func TestFormatOmega(t *testing.T) {
 		{123456, "ω=1.23e+05"},
 	}
 	for _, tc := range tests {
-		if got := formatOmega(tc.w); got != tc.want {
-			t.Errorf("formatOmega(%v) = %q, want %q", tc.w, got, tc.want)
+		if got := omegaText(tc.w, ""); got != tc.want {
+			t.Errorf("omegaText(%v) = %q, want %q", tc.w, got, tc.want)
 		}
 	}
 }

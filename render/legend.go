@@ -95,7 +95,9 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 
 	iso := legendSection{heading: "Iso-lines"}
 	for _, cs := range f.Contours {
-		iso.entries = append(iso.entries, legendEntry{contourText(cs), []plot.Thumbnailer{lineThumb{contourStyle(cs.Look)}}})
+		if drawn := drawnLevels(cs); len(drawn.Levels) > 0 {
+			iso.entries = append(iso.entries, legendEntry{contourText(drawn), []plot.Thumbnailer{lineThumb{contourStyle(cs.Look)}}})
+		}
 	}
 	if len(iso.entries) > 0 {
 		out = append(out, iso)
@@ -116,6 +118,23 @@ func countText(k int, orMore bool) string {
 		return "1 root in RHP"
 	}
 	return strconv.Itoa(k) + " roots in RHP"
+}
+
+// drawnLevels returns cs with only the levels that have a line of two
+// points or more: the legend lists what the figure shows.
+func drawnLevels(cs ContourSet) ContourSet {
+	out := cs
+	out.Levels, out.Lines = nil, nil
+	for k, level := range cs.Levels {
+		for _, l := range cs.Lines[k] {
+			if len(l) >= 2 {
+				out.Levels = append(out.Levels, level)
+				out.Lines = append(out.Lines, cs.Lines[k])
+				break
+			}
+		}
+	}
+	return out
 }
 
 // contourText names a contour set and, when there are few, its levels.

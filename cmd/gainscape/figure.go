@@ -27,14 +27,14 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 	if demoLabel != "" {
 		notes = append(notes, demoLabel)
 	}
-	fig := render.Figure{Map: res.Map, Curves: res.Curves, Title: title, Notes: notes,
-		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter}
+	fig := render.Figure{Map: res.Map, Curves: res.Curves, Title: title, Notes: notes, FreqUnit: res.Units.Freq(),
+		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter, DPI: sc.Output.DPI}
 	ov := res.Overlays
 	if ov == nil {
 		return fig
 	}
 	if ov.Decay != nil && sc.Overlays.Decay {
-		fig.Shade = &render.Field{XAxis: ov.XAxis, YAxis: ov.YAxis, Values: ov.Decay.Values, Name: "decay rate σ (1/s)"}
+		fig.Shade = &render.Field{XAxis: ov.XAxis, YAxis: ov.YAxis, Values: ov.Decay.Values, Name: "decay rate σ (" + res.Units.Rate() + ")"}
 	}
 	// Each quantity keeps its look whatever else is drawn: Ms the first,
 	// damping the second, decay rate the third.

@@ -2,9 +2,11 @@ package main
 
 import (
 	"fmt"
+	"slices"
 	"strings"
 
 	"gainscape/regions/expr"
+	"gainscape/regions/scenario"
 	"gainscape/regions/spec"
 	"gainscape/regions/study"
 )
@@ -49,7 +51,7 @@ func (f loopFlags) fixed() ([]spec.Value, error) {
 // spec reads the plant and controller flags into a loop description; the
 // study checks it.
 func (f loopFlags) spec() (study.LoopSpec, error) {
-	ls := study.LoopSpec{Plant: f.plant, Controller: f.ctrl}
+	ls := study.LoopSpec{Plant: f.plant, Controller: f.ctrl, TimeUnit: f.timeUnit}
 	switch {
 	case f.plant != "" && (f.num != "" || f.den != ""):
 		return ls, userErr("--plant cannot be combined with --num/--den; give the plant one way")
@@ -72,5 +74,8 @@ func (f loopFlags) spec() (study.LoopSpec, error) {
 		return ls, err
 	}
 	ls.Fixed = fixed
+	if !slices.Contains(scenario.TimeUnits, f.timeUnit) {
+		return ls, userErr("--time-unit %q: use one of %s", f.timeUnit, strings.Join(scenario.TimeUnits, ", "))
+	}
 	return ls, nil
 }

@@ -16,7 +16,7 @@ import (
 // curve, kind, x, y, omega (empty where undefined).
 func writeCSV(w io.Writer, res *study.MapResult) error {
 	cw := csv.NewWriter(w)
-	cw.Write([]string{"curve", "kind", res.X.Param, res.Y.Param, "omega_rad_per_s"})
+	cw.Write([]string{"curve", "kind", res.X.Param, res.Y.Param, "omega_rad_per_" + res.Units.Key()})
 	f := func(v float64) string {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return ""
@@ -60,7 +60,7 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		fmt.Fprintf(&b, "- Marginal: %d nodes have a root on the imaginary axis (on an edge, not stable)\n", st.Marginal)
 	}
 	if lo, hi, ok := res.OmegaRange(); ok {
-		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g rad/s\n", lo, hi)
+		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g %s\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(&b, "- %d nodes could not be decided by the sign-array test\n", st.Undecided)
@@ -70,7 +70,7 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 			fmt.Fprintf(&b, "- %s: none found (%s)\n", pointName(p), p.Failed)
 			continue
 		}
-		fmt.Fprintf(&b, "- %s at %s = %.4g, %s = %.4g: %s", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p))
+		fmt.Fprintf(&b, "- %s at %s = %.4g, %s = %.4g: %s", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p, res.Units))
 		if p.Warning != "" {
 			fmt.Fprintf(&b, "; %s", p.Warning)
 		}

@@ -95,6 +95,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 // printProbe writes the report for a person.
 func printProbe(w io.Writer, rep *study.ProbeReport) {
 	r := rep.Doc
+	u := rep.Units
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
 	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
 	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
@@ -118,7 +119,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	}
 	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
 	if len(r.JWOmegas) > 0 {
-		fmt.Fprintf(w, " (ω = %s rad/s)", floatsText(r.JWOmegas))
+		fmt.Fprintf(w, " (ω = %s %s)", floatsText(r.JWOmegas), u.Freq())
 	}
 	if r.DegreeDrop > 0 {
 		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
@@ -138,28 +139,28 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		if p[1] == 0 {
 			fmt.Fprintf(w, "  %.6g\n", p[0])
 		} else {
-			fmt.Fprintf(w, "  %.6g ± %.6gj  (ζ = %.3g, ωn = %.4g rad/s)\n", p[0], p[1], -p[0]/math.Hypot(p[0], p[1]), math.Hypot(p[0], p[1]))
+			fmt.Fprintf(w, "  %.6g ± %.6gj  (ζ = %.3g, ωn = %.4g %s)\n", p[0], p[1], -p[0]/math.Hypot(p[0], p[1]), math.Hypot(p[0], p[1]), u.Freq())
 		}
 	}
-	fmt.Fprintf(w, "decay rate   σ = %.4g 1/s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, r.MinDamping)
+	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
 	if r.GainMargin.Valid() {
-		fmt.Fprintf(w, "gain margin  %.4g (%.3g dB) at the phase crossover ω = %.4g rad/s\n", float64(r.GainMargin), float64(r.GainMarginDB), float64(r.PhaseCrossover))
+		fmt.Fprintf(w, "gain margin  %.4g (%.3g dB) at the phase crossover ω = %.4g %s\n", float64(r.GainMargin), float64(r.GainMarginDB), float64(r.PhaseCrossover), u.Freq())
 	} else {
 		fmt.Fprintln(w, "gain margin  infinite (the phase never reaches −180°)")
 	}
 	if r.PhaseMargin.Valid() {
-		fmt.Fprintf(w, "phase margin %.4g° at the gain crossover ω = %.4g rad/s\n", float64(r.PhaseMargin), float64(r.GainCrossover))
+		fmt.Fprintf(w, "phase margin %.4g° at the gain crossover ω = %.4g %s\n", float64(r.PhaseMargin), float64(r.GainCrossover), u.Freq())
 	} else {
 		fmt.Fprintln(w, "phase margin infinite (|L| never equals 1)")
 	}
-	fmt.Fprintf(w, "Ms           %.4g at ω = %s rad/s   (1.4–2.0 is the usual robustness band, common practice)\n", r.Ms, optText(r.MsFreq))
-	fmt.Fprintf(w, "Mt           %.4g at ω = %s rad/s\n", r.Mt, optText(r.MtFreq))
+	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s   (1.4–2.0 is the usual robustness band, common practice)\n", r.Ms, optText(r.MsFreq), u.Freq())
+	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
-		printFragility(w, fr)
+		printFragility(w, fr, u)
 	}
-	if u := r.Ultimate; u != nil {
-		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g s\n", u.Ku, u.Tu)
-		for _, rule := range u.Rules {
+	if ul := r.Ultimate; ul != nil {
+		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
+		for _, rule := range ul.Rules {
 			fmt.Fprintf(w, "  %-24s kp = %-10.4g ki = %-10.4g kd = %.4g\n", rule.Name, rule.Kp, rule.Ki, rule.Kd)
 		}
 		fmt.Fprintln(w, "  sources: Ziegler & Nichols, Trans. ASME 64 (1942); Luyben, Ind. Eng. Chem. Process Des. Dev. 25 (1986)")
@@ -171,7 +172,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 }
 
 // printFragility writes the fragility lines of the probe report.
-func printFragility(w io.Writer, fr *export.Fragility) {
+func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
 	xn, yn := fr.Plane[0], fr.Plane[1]
 	if !fr.Found {
 		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
@@ -181,7 +182,7 @@ func printFragility(w io.Writer, fr *export.Fragility) {
 	edge := func(n *export.NearestEdge) string {
 		switch n.Kind.String() {
 		case "complex":
-			return fmt.Sprintf("a complex pair crosses at ω = %.4g rad/s", float64(n.Omega))
+			return fmt.Sprintf("a complex pair crosses at ω = %.4g %s", float64(n.Omega), u.Freq())
 		case "real":
 			return "a real root crosses through s = 0"
 		}

@@ -43,7 +43,7 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 	fmt.Fprintf(w, "edges       %d complex-pair, %d real-root, %d through-infinity curves\n",
 		res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Infinite])
 	if lo, hi, ok := res.OmegaRange(); ok {
-		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g rad/s along the complex-pair edges\n", lo, hi)
+		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g %s along the complex-pair edges\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
@@ -53,7 +53,7 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 			fmt.Fprintf(w, "%-11s none found: %s\n", pointName(p), p.Failed)
 			continue
 		}
-		fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p))
+		fmt.Fprintf(w, "%-11s %s = %.6g, %s = %.6g: %s\n", pointName(p), x.Param, float64(p.X), y.Param, float64(p.Y), pointFigures(p, res.Units))
 		if p.Warning != "" {
 			fmt.Fprintf(w, "%-11s %s\n", "", p.Warning)
 		}
@@ -87,11 +87,11 @@ func pointName(p export.Point) string {
 }
 
 // pointFigures says how stable and robust a point is, in words.
-func pointFigures(p export.Point) string {
+func pointFigures(p export.Point, u study.Units) string {
 	if !p.Stable {
 		return "not stable"
 	}
-	s := fmt.Sprintf("decay rate %.4g 1/s, smallest damping %.3g", float64(p.Decay), float64(p.Damping))
+	s := fmt.Sprintf("decay rate %.4g %s, smallest damping %.3g", float64(p.Decay), u.Rate(), float64(p.Damping))
 	if !math.IsNaN(float64(p.Ms)) {
 		s += fmt.Sprintf(", Ms %.4g", float64(p.Ms))
 	}

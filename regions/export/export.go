@@ -37,11 +37,14 @@ func (n Number) Valid() bool {
 // Region is the --data document. Its fields x, y, rhp and boundaries are
 // the stable contract; the others describe the scenario and may grow.
 type Region struct {
-	Plant      string             `json:"plant"`
-	Controller string             `json:"controller"`
-	Fixed      map[string]float64 `json:"fixed"`
-	X          plane.Axis         `json:"x"`
-	Y          plane.Axis         `json:"y"`
+	Plant      string `json:"plant"`
+	Controller string `json:"controller"`
+	// TimeUnit is the unit of time of the plant's s: ω is in rad per it,
+	// decay rates in 1 per it.
+	TimeUnit string             `json:"time_unit"`
+	Fixed    map[string]float64 `json:"fixed"`
+	X        plane.Axis         `json:"x"`
+	Y        plane.Axis         `json:"y"`
 	// RHP[j][i] is the right-half-plane root count at (x_i, y_j), row 0
 	// at y = min; -1 where the test could not decide.
 	RHP [][]int `json:"rhp"`

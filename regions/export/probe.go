@@ -7,6 +7,7 @@ import "gainscape/regions/stability"
 type Probe struct {
 	Plant          string             `json:"plant"`
 	Controller     string             `json:"controller"`
+	TimeUnit       string             `json:"time_unit"`
 	Values         map[string]float64 `json:"values"`
 	Characteristic []float64          `json:"characteristic"` // highest power first
 	SignArray      []SignRow          `json:"sign_array"`
@@ -86,6 +87,7 @@ type Rule struct {
 type Vary struct {
 	Plant      string             `json:"plant"`
 	Controller string             `json:"controller"`
+	TimeUnit   string             `json:"time_unit"`
 	Param      string             `json:"param"`
 	Min        float64            `json:"min"`
 	Max        float64            `json:"max"`

@@ -21,6 +21,9 @@ type LoopSpec struct {
 	Num, Den   []float64
 	Controller string
 	Fixed      []spec.Value
+	// TimeUnit is the unit of time of s (scenario.TimeUnits); it labels
+	// the reports only.
+	TimeUnit string
 }
 
 // PlantText is the plant as the user gave it, for titles and reports.

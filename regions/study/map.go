@@ -19,12 +19,13 @@ type MapJob struct {
 	sc    scenario.Scenario
 	setup plane.Setup
 	plant string
+	units Units
 }
 
 // NewMap checks a validated scenario and builds its loop and plane. Errors
 // are *InputError values.
 func NewMap(sc scenario.Scenario) (*MapJob, error) {
-	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed}
+	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit}
 	l, err := ls.Build()
 	if err != nil {
 		return nil, err
@@ -35,7 +36,7 @@ func NewMap(sc scenario.Scenario) (*MapJob, error) {
 	if err != nil {
 		return nil, inputErr("--x", "axes.x", axisText(x)+" --y "+axisText(y), "%v", err)
 	}
-	return &MapJob{sc: sc, setup: s, plant: ls.PlantText()}, nil
+	return &MapJob{sc: sc, setup: s, plant: ls.PlantText(), units: Units{ls.TimeUnit}}, nil
 }
 
 func axisText(a plane.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }
@@ -78,10 +79,12 @@ type MapResult struct {
 	Curves []boundary.Curve
 	// Stats summarises the map.
 	Stats grid.Stats
-	// Edges counts the edge curves of each kind.
+	// Edges counts the edge curves of each kind, of two points or more.
 	Edges map[stability.Kind]int
 	// Overlays is nil when none was asked for.
 	Overlays *Overlays
+	// Units labels frequencies, decay rates and periods.
+	Units Units
 }
 
 // Run computes the map, its edges and the overlays the scenario asks for.
@@ -101,10 +104,13 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 	res := &MapResult{
 		Plant: j.plant, Controller: s.Family.Name(), Formula: s.Family.Formula(),
 		Fixed: valuesOf(s.Loop, s.XIndex, s.YIndex), X: s.X, Y: s.Y,
-		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{},
+		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{}, Units: j.units,
 	}
 	for _, c := range curves {
-		res.Edges[c.Kind]++
+		// A crossing no other joins is a point, not an edge.
+		if len(c.Points) > 1 {
+			res.Edges[c.Kind]++
+		}
 	}
 	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
 		return nil, err
@@ -131,7 +137,7 @@ func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 // Data returns the --data document of the map.
 func (r *MapResult) Data() *export.Region {
 	doc := &export.Region{
-		Plant: r.Plant, Controller: r.Controller, Fixed: map[string]float64{},
+		Plant: r.Plant, Controller: r.Controller, TimeUnit: r.Units.Key(), Fixed: map[string]float64{},
 		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Axis: r.Map.AxisRows(), Boundaries: []export.Boundary{},
 	}
 	for _, v := range r.Fixed {

@@ -175,28 +175,32 @@ func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
 }
 
 // markPoint places a mark in the plane: it must give both axis
-// parameters; others it gives change the loop at that point only.
+// parameters, and may repeat the map's value of another parameter, but
+// not give it another value, for then the point would not lie on the
+// plane drawn.
 func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
 	x, y := math.NaN(), math.NaN()
-	l := s.Loop
-	l.Values = append([]float64(nil), l.Values...)
 	for _, v := range vals {
-		i, err := family.Index(l.Family, v.Param)
+		text := v.Param + "=" + formatAll([]float64{v.V})[0]
+		i, err := family.Index(s.Family, v.Param)
 		if err != nil {
-			return export.Point{}, &InputError{Flag: "--mark", Key: "overlays.marks", Value: v.Param + "=" + formatAll([]float64{v.V})[0], Err: err}
+			return export.Point{}, &InputError{Flag: "--mark", Key: "overlays.marks", Value: text, Err: err}
 		}
-		l.Values[i] = v.V
 		switch i {
 		case s.XIndex:
 			x = v.V
 		case s.YIndex:
 			y = v.V
+		default:
+			if v.V != s.Values[i] {
+				return export.Point{}, inputErr("--mark", "overlays.marks", valuesList(vals),
+					"the map is drawn at %s = %g, the mark at %s; a mark lies on the map's plane (leave %s out, or map at that value)", v.Param, s.Values[i], text, v.Param)
+			}
 		}
 	}
 	if math.IsNaN(x) || math.IsNaN(y) {
 		return export.Point{}, inputErr("--mark", "overlays.marks", valuesList(vals), "give both %s and %s", s.X.Param, s.Y.Param)
 	}
-	s.Loop = l
 	return pointAt(s, x, y)
 }
 

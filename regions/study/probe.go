@@ -26,6 +26,8 @@ type ProbeReport struct {
 	// point in the family's order of parameters.
 	Formula string
 	Values  []Value
+	// Units labels frequencies, decay rates and periods.
+	Units Units
 }
 
 // Probe computes the report for one design point: the stability test's
@@ -42,8 +44,9 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if !char.Finite() {
 		return nil, inputErr("--set", "fixed", "", "the characteristic polynomial has non-finite coefficients")
 	}
+	units := Units{req.Loop.TimeUnit}
 	doc := &export.Probe{
-		Plant: req.Loop.PlantText(), Controller: l.Family.Name(),
+		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(),
 		Values: valueMap(l), Characteristic: char.Descending(), Caution: Caution,
 	}
 	rep := l.Test().Report(l.Function())
@@ -93,5 +96,5 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 		}
 		doc.Ultimate = u
 	}
-	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l)}, nil
+	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}, nil
 }

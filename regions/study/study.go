@@ -67,3 +67,35 @@ func IsInput(err error) bool {
 	var ie *InputError
 	return errors.As(err, &ie)
 }
+
+// Units names the units of a loop whose plant has its time in Time (one
+// of scenario.TimeUnits, "s" when empty): frequencies are in rad per that
+// unit, decay rates in 1 per it, periods in it. The numbers never change
+// with the unit; only their labels do.
+type Units struct{ Time string }
+
+// TimeLabel is the unit of time as written in reports: "µs" for "us".
+func (u Units) TimeLabel() string {
+	switch u.Time {
+	case "":
+		return "s"
+	case "us":
+		return "µs"
+	}
+	return u.Time
+}
+
+// Freq is the unit of frequencies, e.g. "rad/s".
+func (u Units) Freq() string { return "rad/" + u.TimeLabel() }
+
+// Rate is the unit of decay rates, e.g. "1/s".
+func (u Units) Rate() string { return "1/" + u.TimeLabel() }
+
+// Key is the unit of time as data files write it: "s", "ms", "us", "min"
+// or "h".
+func (u Units) Key() string {
+	if u.Time == "" {
+		return "s"
+	}
+	return u.Time
+}

@@ -56,9 +56,10 @@ func Vary(req VaryRequest) (*VaryReport, error) {
 	if err != nil {
 		return nil, &InputError{Flag: "--vary", Value: fmt.Sprintf("%q", req.Text), Err: err}
 	}
+	units := Units{req.Loop.TimeUnit}
 	rep := &VaryReport{Formula: l.Family.Formula(), Fixed: valuesOf(l, idx)}
 	rep.Doc = &export.Vary{
-		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), Param: ax.Param, Min: ax.Min, Max: ax.Max,
+		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(), Param: ax.Param, Min: ax.Min, Max: ax.Max,
 		Fixed: valueMap(l, idx), Intervals: []export.Interval{}, Caution: Caution,
 	}
 	for _, iv := range ivs {
@@ -67,7 +68,7 @@ func Vary(req VaryRequest) (*VaryReport, error) {
 			LoOmega: export.Number(iv.LoOmega), HiOmega: export.Number(iv.HiOmega),
 		})
 		// Adding zero turns a negative zero from the search into +0.
-		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega), HiEnd: endText(iv.HiKind, iv.HiOmega)})
+		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega, units), HiEnd: endText(iv.HiKind, iv.HiOmega, units)})
 	}
 	return rep, nil
 }
@@ -81,12 +82,12 @@ func endKind(k stability.Kind) string {
 }
 
 // endText says in words how the loop loses stability at an interval end.
-func endText(k stability.Kind, omega float64) string {
+func endText(k stability.Kind, omega float64, u Units) string {
 	switch k {
 	case stability.Real:
 		return "a real root crosses through s = 0 (the loop drifts away, ω = 0)"
 	case stability.Complex:
-		return fmt.Sprintf("a complex pair crosses the imaginary axis: the loop oscillates at ω = %.6g rad/s (period %.4g s)", omega, 2*math.Pi/omega)
+		return fmt.Sprintf("a complex pair crosses the imaginary axis: the loop oscillates at ω = %.6g %s (period %.4g %s)", omega, u.Freq(), 2*math.Pi/omega, u.TimeLabel())
 	case stability.Infinite:
 		return "a root passes through infinity (the leading coefficient vanishes)"
 	}
