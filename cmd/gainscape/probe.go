@@ -143,27 +143,54 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		}
 	}
 	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
-	if r.GainMargin.Valid() {
-		fmt.Fprintf(w, "gain margin  %.4g (%.3g dB) at the phase crossover ω = %.4g %s\n", float64(r.GainMargin), float64(r.GainMarginDB), float64(r.PhaseCrossover), u.Freq())
-	} else {
+	if !r.Stable {
+		fmt.Fprintln(w, "The loop is not stable, so the figures below are no robustness margins: they")
+		fmt.Fprintln(w, "describe the open loop L(jω), not how far the loop is from instability.")
+	}
+	switch len(r.GainMargins) {
+	case 0:
 		fmt.Fprintln(w, "gain margin  infinite (the phase never reaches −180°)")
+	default:
+		for i, g := range r.GainMargins {
+			head := "gain margin "
+			if i > 0 {
+				head = "            "
+			}
+			change := "rise"
+			if g.Direction == "fall" {
+				change = "fall"
+			}
+			fmt.Fprintf(w, "%s %.4g (%.3g dB) at the phase crossover ω = %.4g %s: the gain may %s to %.4g times its value\n",
+				head, g.Factor, g.DB, g.Freq, u.Freq(), change, g.Factor)
+		}
 	}
 	if r.PhaseMargin.Valid() {
 		fmt.Fprintf(w, "phase margin %.4g° at the gain crossover ω = %.4g %s\n", float64(r.PhaseMargin), float64(r.GainCrossover), u.Freq())
 	} else {
 		fmt.Fprintln(w, "phase margin infinite (|L| never equals 1)")
 	}
-	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s   (1.4–2.0 is the usual robustness band, common practice)\n", r.Ms, optText(r.MsFreq), u.Freq())
+	band := "   (1.4–2.0 is the usual robustness band, common practice)"
+	if !r.Stable {
+		band = ""
+	}
+	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
 	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
 		printFragility(w, fr, u)
 	}
 	if ul := r.Ultimate; ul != nil {
 		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
-		for _, rule := range ul.Rules {
-			fmt.Fprintf(w, "  %-24s kp = %-10.4g ki = %-10.4g kd = %.4g\n", rule.Name, rule.Kp, rule.Ki, rule.Kd)
+		if !ul.RulesApply {
+			fmt.Fprintf(w, "  %s; their settings follow for reference only\n", ul.Note)
 		}
-		fmt.Fprintln(w, "  sources: Ziegler & Nichols, Trans. ASME 64 (1942); Luyben, Ind. Eng. Chem. Process Des. Dev. 25 (1986)")
+		for _, rule := range ul.Rules {
+			verdict := "stable"
+			if !rule.Stable {
+				verdict = fmt.Sprintf("NOT stable (%d roots in the right half plane)", rule.RHP)
+			}
+			fmt.Fprintf(w, "  %-24s kp = %-10.4g ki = %-10.4g kd = %-10.4g %s\n", rule.Name, rule.Kp, rule.Ki, rule.Kd, verdict)
+		}
+		fmt.Fprintln(w, "  sources: Ziegler & Nichols, Trans. ASME 64 (1942); Tyreus & Luyben, Ind. Eng. Chem. Res. 31 (1992)")
 	} else {
 		fmt.Fprintln(w, "\nProportional-only loop: no finite ultimate gain with a sustained oscillation")
 	}

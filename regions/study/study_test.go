@@ -229,3 +229,83 @@ func TestVaryThirdOrderLag(t *testing.T) {
 		t.Fatalf("unknown parameter: %v", err)
 	}
 }
+
+// TestEveryGainMargin: the conditionally stable loop 4/((s−1)(s+3)(0.1s+1))
+// under PI (kp = 2, ki = 0.1; invented) has two phase crossovers. Each
+// margin is checked against gonum's eigenvalues: the characteristic
+// polynomial with the loop gain scaled by the margin has a pair on the
+// imaginary axis at the crossover frequency.
+func TestEveryGainMargin(t *testing.T) {
+	ls := LoopSpec{Plant: "4/((s-1)*(s+3)*(0.1*s+1))", Controller: "pi", Fixed: []spec.Value{{Param: "kp", V: 2}, {Param: "ki", V: 0.1}}}
+	rep, err := Probe(context.Background(), ProbeRequest{Loop: ls})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := rep.Doc
+	if !d.Stable || len(d.GainMargins) != 2 || d.GainMargins[0].Direction != "fall" || d.GainMargins[1].Direction != "rise" {
+		t.Fatalf("margins %+v", d.GainMargins)
+	}
+	l, _ := ls.Build()
+	num, den := l.Open()
+	for _, g := range d.GainMargins {
+		p := poly.Add(den, num.Scaled(g.Factor))
+		roots, _ := p.Roots()
+		found := false
+		for _, r := range roots {
+			if math.Abs(real(r)) < 1e-6*g.Freq && math.Abs(math.Abs(imag(r))-g.Freq) < 1e-6*g.Freq {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("gain %g: no root at ±j%g among %v", g.Factor, g.Freq, roots)
+		}
+	}
+	if float64(d.GainMargin) != d.GainMargins[0].Factor {
+		t.Errorf("gain_margin %v is not the one nearest 0 dB", d.GainMargin)
+	}
+}
+
+// TestTuningRulesChecked: on the invented plant 900/(s(s+2)(s²+1.2s+900)),
+// a lightly damped resonance beyond the ultimate frequency, the
+// Ziegler–Nichols PID setting leaves four roots in the right half plane;
+// each rule's verdict is checked against gonum's eigenvalues.
+func TestTuningRulesChecked(t *testing.T) {
+	ls := LoopSpec{Plant: "900/(s*(s+2)*(s^2+1.2*s+900))", Controller: "p"}
+	rep, err := Probe(context.Background(), ProbeRequest{Loop: ls})
+	if err != nil {
+		t.Fatal(err)
+	}
+	u := rep.Doc.Ultimate
+	if u == nil || !u.RulesApply || len(u.Rules) != 5 {
+		t.Fatalf("ultimate %+v", u)
+	}
+	for _, r := range u.Rules {
+		fs := []spec.Value{{Param: "kp", V: r.Kp}}
+		if r.Family != "p" {
+			fs = append(fs, spec.Value{Param: "ki", V: r.Ki})
+		}
+		if r.Family == "pid" {
+			fs = append(fs, spec.Value{Param: "kd", V: r.Kd})
+		}
+		l, err := LoopSpec{Plant: ls.Plant, Controller: r.Family, Fixed: fs}.Build()
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, _ := eigenCount(t, l.Characteristic())
+		if r.RHP != want || r.Stable != (want == 0) {
+			t.Errorf("%s: rhp %d stable %v; eigenvalues %d", r.Name, r.RHP, r.Stable, want)
+		}
+		if r.Name == "Ziegler-Nichols PID" && r.RHP != 4 {
+			t.Errorf("Ziegler-Nichols PID: %d roots in the right half plane; want 4", r.RHP)
+		}
+	}
+	// An open-loop unstable plant: the rules are printed, marked as not
+	// applying.
+	rep, err = Probe(context.Background(), ProbeRequest{Loop: LoopSpec{Plant: "4/((s-1)*(s+3)*(0.1*s+1))", Controller: "p", Fixed: []spec.Value{{Param: "kp", V: 2}}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if u := rep.Doc.Ultimate; u == nil || u.RulesApply || u.Note == "" {
+		t.Errorf("rules on an unstable plant: %+v", u)
+	}
+}
