@@ -4,7 +4,9 @@ const mapHelp = `gainscape map — the stable region of a loop in the plane of t
 
 The loop is unity negative feedback around plant G(s) with controller C(s).
 Every grid node gets the number of closed-loop roots in the right half plane
-from the Routh sign-array test; edges between regions are refined by
+and on the imaginary axis from the Routh sign-array test: stable (none in
+either), marginal (some on the axis, none to its right; drawn violet, never
+counted as stable) or unstable. Edges between regions are refined by
 bisection and labelled with the frequency at which the loop oscillates there.
 
 Plant (one of):
@@ -20,12 +22,17 @@ Controller:
                       pid: kp, ki, kd, tau (C = kp + ki/s + kd·s/(tau·s+1))
                       lead, lag: k, z, p (C = k(s+z)/(s+p))
                       leadlag: k, z1, p1, z2, p2
-  --set LIST          values of the parameters that are not axes
-                        --set kd=0.5,tau=0.02
+  --set LIST          values of the parameters that are not axes; repeatable,
+                      and a parameter set twice must have one value
+                        --set kd=0.5,tau=0.02  or  --set kd=0.5 --set tau=0.02
+  --time-unit UNIT    the unit of time of s: s, ms, us, min or h (default s);
+                      labels frequencies, decay rates and periods
+                        --time-unit ms
 Window:
-  --x NAME=MIN:MAX    horizontal axis (default kp=0:10)
+  --x NAME=MIN:MAX    horizontal axis (default: the controller's first
+                      parameter, 0:10)
                         --x kp=0:20
-  --y NAME=MIN:MAX    vertical axis (default ki=0:5)
+  --y NAME=MIN:MAX    vertical axis (default: its second parameter, 0:5)
                         --y ki=0:8
   --grid NXxNY        nodes per axis, 2…4000 each (default 300x225)
                         --grid 400x300
@@ -33,11 +40,16 @@ Window:
                       depend on it
                         --workers 1
 Output:
-  -o, --out FILE      image, .png or .svg (default gainscape-map.png);
-                      - writes the image to standard output
+  -o, --out FILE      image, .png, .svg or .pdf (default gainscape-map.png);
+                      - writes it to standard output (as may any one output)
                         -o pump-pid.svg
-  --format png|svg    image format when the extension does not say
+  --format png|svg|pdf
+                      image format when the file name does not say; it must
+                      agree with the extension when it does
                         -o - --format svg > map.svg
+  --dpi N             resolution of a PNG image, 50…1200 (default 200),
+                      written into the file so documents size it right
+                        --dpi 300
   --data FILE         the map as JSON: axes, counts, boundaries with ω
                         --data region.json
   --csv FILE          the boundary polylines: curve, kind, x, y, ω
@@ -68,9 +80,12 @@ Overlays (inside the stable region):
                       repeatable
                         --mark kp=2,ki=0.8 --mark kp=4,ki=1.5
   --best LIST         search for best points: decay (largest decay rate) and
-                      ki (largest integral gain with Ms ≤ --ms-bound)
+                      ki (largest integral gain with Ms ≤ --ms-bound); a
+                      search that finds nothing says why and the map is drawn
                         --best decay,ki
-  --ms-bound X        the Ms limit of the ki search (0 = the default 1.4)
+  --ms-bound X        the Ms limit of the searches; without it the ki search
+                      uses 1.4 and the decay search none (the summary says
+                      which bound was used)
                         --ms-bound 1.6
 Scenario files:
   --scenario FILE     read the map from a scenario file (TOML); flags given
@@ -79,9 +94,19 @@ Scenario files:
   --save-scenario FILE
                       write the scenario of this map, to re-make it exactly
                         --save-scenario figure-3.toml
+  --allow-outside-paths
+                      let a scenario file's output paths leave the file's own
+                      folder (refused by default: a shared scenario must not
+                      write elsewhere)
+                        --allow-outside-paths
 
 With no plant flag, a built-in demo scenario (an invented pump pressure loop)
 is drawn into gainscape-demo.png in the current directory.
+
+Every output is checked before any work and written only when all are
+ready; an error or an interrupt (Ctrl-C, SIGTERM, SIGHUP) leaves every
+existing file as it was. Errors exit with 2, interrupts with 128 + the
+signal number.
 
 Examples:
   gainscape map
