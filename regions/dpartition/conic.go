@@ -141,7 +141,15 @@ func (w window) arcs(q, split conic, omega, tol float64) []arc {
 			},
 			win: w, tol: tol, n0: 2,
 		}
-		pts := smp.clip(smp.run())
+		var pts [][]Point
+		if q.e == 0 {
+			// A straight line needs its two ends only.
+			a, _ := smp.eval(0)
+			b, _ := smp.eval(1)
+			pts = [][]Point{{w.snap(a), w.snap(b)}}
+		} else {
+			pts = smp.clip(smp.run())
+		}
 		for _, run := range pts {
 			if len(cur) > 0 && cur[len(cur)-1] == run[0] && !splitAt(s, run[0]) {
 				cur = append(cur, run[1:]...)

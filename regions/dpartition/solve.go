@@ -133,7 +133,7 @@ func (pc *pencil) solve(f *freq, clamp bool, out *[2]solution) int {
 		y := -(ur*wr + ui*wi) / den
 		// ∂Δ/∂x = B + y·E, ∂Δ/∂y = C + x·E.
 		dr, di := b.re+y*e.re, b.im+y*e.im
-		out[k] = solution{x, y, dr*wi - wr*di}
+		out[k] = solution{x + 0, y + 0, dr*wi - wr*di} // +0: no −0 in reports
 		k++
 	}
 	return k
