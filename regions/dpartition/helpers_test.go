@@ -256,3 +256,50 @@ func segmentDistance(w window, a, b, c, d Point) float64 {
 	}
 	return math.Min(math.Min(w.deviation(c, a, b), w.deviation(d, a, b)), math.Min(w.deviation(a, c, d), w.deviation(b, c, d)))
 }
+
+// distanceToCurves is the least distance, in window coordinates, from p to
+// the polylines of the curves of one kind.
+func distanceToCurves(w window, cs []Curve, kind stability.Kind, p Point) float64 {
+	best := math.Inf(1)
+	for _, c := range cs {
+		if c.Kind != kind {
+			continue
+		}
+		for i := 0; i+1 < len(c.Points); i++ {
+			best = math.Min(best, w.deviation(p, c.Points[i], c.Points[i+1]))
+		}
+		if len(c.Points) == 1 {
+			best = math.Min(best, w.length(p, c.Points[0]))
+		}
+	}
+	return best
+}
+
+// checkCovers samples a known parametrisation of the complex edge densely
+// in ω and requires every sample inside the window to lie within tol of a
+// traced curve: nothing is missing, and the polylines follow the curve.
+func checkCovers(t *testing.T, pr Problem, cs []Curve, edge func(omega float64) Point, omegas []float64, tol float64) int {
+	t.Helper()
+	w := window{pr.X, pr.Y}
+	inside := 0
+	for _, om := range omegas {
+		p := edge(om)
+		if !w.contains(p.X, p.Y) {
+			continue
+		}
+		inside++
+		if d := distanceToCurves(w, cs, stability.Complex, p); !(d <= tol) {
+			t.Fatalf("edge point %+v is %.3g from every traced curve (tolerance %.3g)", p, d, tol)
+		}
+	}
+	return inside
+}
+
+// span returns n+1 values spread evenly over [a, b].
+func span(a, b float64, n int) []float64 {
+	v := make([]float64, n+1)
+	for i := range v {
+		v[i] = a + (b-a)*float64(i)/float64(n)
+	}
+	return v
+}

@@ -95,17 +95,40 @@ func TestPIDSingularLines(t *testing.T) {
 
 // With a plant whose zero lies on the imaginary axis, C = N vanishes at
 // that frequency and [A, C] with it, without any crossing there: the
-// candidate must be rejected. Plant invented for this test:
-// G = (s² + 4)/((s+1)³(s+3)), kp = 0.5.
+// candidate must be rejected, the others kept. Plant invented for this
+// test: G = (s² + 4)/((s+1)³(s+3)), kp = 0.5; the reference's sign change
+// at ω = 2 is the pole of D/N there, not a crossing.
 func TestPIDSingularSkipsPlantZeroOnAxis(t *testing.T) {
 	num := poly.Poly{4, 0, 1}
 	den := poly.Mul(poly.FromDescending([]float64{1, 3, 3, 1}), poly.Poly{3, 1})
 	pr := pidSlice(num, den, 0.5, Range{-5, 5}, Range{-10, 10})
+	var want []float64
+	for _, w := range silvaFrequencies(num, den, 0.5, 20) {
+		if math.Abs(w-2) > 1e-6 {
+			want = append(want, w)
+		}
+	}
 	res := mustEdges(t, pr)
+	found := 0
 	for _, c := range res.Curves {
-		if c.Kind == stability.Complex && math.Abs(c.Points[0].Omega-2) < 1e-6 {
+		if c.Kind != stability.Complex {
+			continue
+		}
+		w := c.Points[0].Omega
+		if math.Abs(w-2) < 1e-6 {
 			t.Fatalf("a line at the plant's zero ω = 2: %+v", c)
 		}
+		ok := false
+		for _, r := range want {
+			ok = ok || near(w, r, 1e-9)
+		}
+		if !ok {
+			t.Fatalf("line at ω = %.15g, not among the reference frequencies %v", w, want)
+		}
+		found++
+	}
+	if found == 0 {
+		t.Fatalf("no line; reference frequencies %v", want)
 	}
 	checkResiduals(t, pr, res.Curves)
 	checkSides(t, pr, res.Curves, 1e-5)

@@ -203,8 +203,9 @@ type Curve struct {
 	// cannot be decided.
 	Change int
 	// Branch numbers the branches of a delay loop's complex edge: the
-	// points of branch k have 2πk ≤ ωL < 2π(k+1). It is 0 for every other
-	// curve.
+	// points of branch k have 2πk ≤ ωL ≤ 2π(k+1), a curve being cut where
+	// ωL passes a multiple of 2π so that the cut point ends one branch and
+	// starts the next. It is 0 for every other curve.
 	Branch int
 }
 
