@@ -178,3 +178,28 @@ func TestInputErrors(t *testing.T) {
 		})
 	}
 }
+
+// An edge that goes to infinity at an isolated frequency: the lag
+// k(s + 10)/(s + p) on the invented plant 1/(s(s+1)(s+5)) in the (k, p)
+// plane is affine, with B = (s + 10), C = s(s+1)(s+5) (derived by hand):
+// [B, C]/ω = 10(5 − ω²) + 6ω² = 50 − 4ω², so the 2×2 system is singular
+// at ω = √12.5 alone, where (k, p) runs off to infinity and back.
+func TestIsolatedPole(t *testing.T) {
+	den := poly.FromDescending([]float64{1, 6, 5, 0})
+	pr := Problem{P: Bilinear{A: poly.Mul(sVar, den), B: poly.Poly{10, 1}, C: den}, X: Range{0, 100}, Y: Range{0.1, 30}}
+	pc, err := newPencil(pr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	poles, err := positiveRoots(pc.x.c[1].even)
+	if err != nil || len(poles) != 1 || !near(poles[0], 12.5, 1e-12) {
+		t.Fatalf("poles at ν = %v (%v), want 12.5", poles, err)
+	}
+	res := mustEdges(t, pr)
+	if kinds(res.Curves)[stability.Complex] == 0 {
+		t.Fatal("no complex edge")
+	}
+	checkResiduals(t, pr, res.Curves)
+	checkSides(t, pr, res.Curves, 1e-6)
+	checkAgainstGrid(t, pr, res.Curves, 60, 3e-3)
+}
