@@ -303,3 +303,16 @@ func span(a, b float64, n int) []float64 {
 	}
 	return v
 }
+
+// checkRational runs the checks every rational case shares: residuals at
+// the complex points, eigenvalue counts on both sides of every curve, and
+// the n×n eigenvalue grid, all against gonum.
+func checkRational(t *testing.T, pr Problem, cs []Curve, n int) {
+	t.Helper()
+	if kinds(cs)[stability.Complex] == 0 {
+		t.Fatal("no complex edge: the case tests little")
+	}
+	checkResiduals(t, pr, cs)
+	checkSides(t, pr, cs, 1e-6)
+	checkAgainstGrid(t, pr, cs, n, 3e-3)
+}

@@ -148,14 +148,12 @@ func Crossings(lp LineProblem, opt Options) (LineResult, error) {
 	return res, nil
 }
 
+// signOf is the sign of v as ±1, and 0 for zero or NaN (undecided).
 func signOf(v float64) int {
-	switch {
-	case v > 0:
-		return 1
-	case v < 0:
-		return -1
+	if v == 0 || math.IsNaN(v) {
+		return 0
 	}
-	return 0
+	return int(math.Copysign(1, v))
 }
 
 // lineFixed returns the real and infinite crossings, with the directions

@@ -131,12 +131,18 @@ func (sw *sweeper) branchBounds(end float64) []float64 {
 }
 
 // events is the number of functions the edge sweep watches.
-const events = 8
+const events = 9
 
 // eventValues evaluates at f the functions whose sign changes mark a
 // critical frequency of the edge: the leading coefficient and the
-// discriminant of each quadratic (its denominator when it is linear), and
-// the quadratic at each window side.
+// discriminant of each quadratic (its denominator when it is linear), the
+// quadratic at each window side, and, for a bilinear pencil, y₀ − y₁ of
+// the two solutions in increasing x. The last catches the frequency where
+// the two solutions pass through the same x at different y: the
+// discriminant only touches zero there, without a sign change, while the
+// order of the solutions in x swaps, so y₀ − y₁ jumps in sign. (For a
+// rational loop the touching zero is a double root of the discriminant's
+// polynomial, found with the others.)
 func (pc *pencil) eventValues(f *freq, w window, out []float64) {
 	k := 0
 	for _, side := range [2]struct {
@@ -153,6 +159,13 @@ func (pc *pencil) eventValues(f *freq, w window, out []float64) {
 			out[k+2+i] = (v2*s+v1)*s + v0
 		}
 		k += 4
+	}
+	out[8] = 1
+	if pc.sheets == 2 {
+		var sols [2]solution
+		if pc.solve(f, false, &sols) == 2 {
+			out[8] = sols[0].y - sols[1].y
+		}
 	}
 }
 
