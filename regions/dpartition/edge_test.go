@@ -192,3 +192,33 @@ func TestIsolatedPole(t *testing.T) {
 	}
 	checkRational(t, pr, mustEdges(t, pr).Curves, 60)
 }
+
+// Time scaling: the plant 1/(s/ω₀ + 1)³ under PI has the edge of
+// TestPIOnTripleLag with ω and ki multiplied by ω₀ (kp(ω) = −Re[1/G(jω)]
+// depends on ω/ω₀ only, ki = ω·Im[1/G(jω)] gains the factor ω₀). Checked
+// for ω₀ = 1e-4 and 1e4, with the ki side of the window scaled alike.
+func TestFrequencyScaling(t *testing.T) {
+	for _, w0 := range []float64{1e-4, 1e4} {
+		den := poly.Poly{1, 3 / w0, 3 / (w0 * w0), 1 / (w0 * w0 * w0)}
+		pr := piProblem(poly.Poly{1}, den, 0, Range{-2, 10}, Range{-1 * w0, 4 * w0})
+		res := mustEdges(t, pr)
+		n := 0
+		for _, c := range res.Curves {
+			if c.Kind != stability.Complex {
+				continue
+			}
+			for _, p := range c.Points {
+				nu := p.Omega * p.Omega / (w0 * w0)
+				if !near(p.X, 3*nu-1, 1e-11) || !near(p.Y/w0, 3*nu-nu*nu, 1e-11) {
+					t.Fatalf("ω₀ = %g: point %+v off the scaled edge", w0, p)
+				}
+				n++
+			}
+		}
+		if n == 0 {
+			t.Fatalf("ω₀ = %g: no complex edge", w0)
+		}
+		checkResiduals(t, pr, res.Curves)
+		checkSides(t, pr, res.Curves, 1e-6)
+	}
+}

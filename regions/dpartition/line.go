@@ -2,6 +2,7 @@ package dpartition
 
 import (
 	"math"
+	"math/cmplx"
 	"sort"
 
 	"gainscape/regions/poly"
@@ -135,7 +136,11 @@ func Crossings(lp LineProblem, opt Options) (LineResult, error) {
 		if pr.Delay > 0 {
 			branch = int(math.Floor(om * pr.Delay / (2 * math.Pi)))
 		}
-		res.Crossings = append(res.Crossings, Crossing{k, om, stability.Complex, 2 * signOf(real(-bj/ds)), branch})
+		v := -bj / ds
+		if math.Abs(real(v)) <= sideTol*cmplx.Abs(v) {
+			v = 0 // the pair moves along the axis: a double root
+		}
+		res.Crossings = append(res.Crossings, Crossing{k, om, stability.Complex, 2 * signOf(real(v)), branch})
 	}
 	res.Crossings = append(res.Crossings, lineFixed(pr, lp.K)...)
 	sort.SliceStable(res.Crossings, func(i, j int) bool {

@@ -105,6 +105,11 @@ func evalPart(p, q *part, f *freq) component {
 	return component{re, im}
 }
 
+// sideTol is the size, relative to its terms, below which a quantity
+// whose sign gives a side or a direction is taken as zero: its sign is
+// then left undecided rather than guessed.
+const sideTol = 1e-12
+
 // solution is one point of the complex edge at a frequency, with the sign
 // of J/ω, J = det ∂(Re Δ, Im Δ)/∂(x, y).
 type solution struct {
@@ -133,7 +138,11 @@ func (pc *pencil) solve(f *freq, clamp bool, out *[2]solution) int {
 		y := -(ur*wr + ui*wi) / den
 		// ∂Δ/∂x = B + y·E, ∂Δ/∂y = C + x·E.
 		dr, di := b.re+y*e.re, b.im+y*e.im
-		out[k] = solution{x + 0, y + 0, dr*wi - wr*di} // +0: no −0 in reports
+		j := dr*wi - wr*di
+		if math.Abs(j) <= sideTol*(math.Abs(dr*wi)+math.Abs(wr*di)) {
+			j = 0 // rounding could decide the sign: the side is unknown
+		}
+		out[k] = solution{x + 0, y + 0, j} // +0: no −0 in reports
 		k++
 	}
 	return k
