@@ -38,6 +38,7 @@ func TestWindowSideOnRealEdge(t *testing.T) {
 		t.Errorf("real edge covers %g of the side, want all 12", realLen)
 	}
 	checkResiduals(t, pr, res.Curves)
+	checkSides(t, pr, res.Curves, 1e-6)
 }
 
 // Plant gains of 1e-12 and 1e12 with the window scaled by the inverse
@@ -202,21 +203,15 @@ func TestFrequencyScaling(t *testing.T) {
 		den := poly.Poly{1, 3 / w0, 3 / (w0 * w0), 1 / (w0 * w0 * w0)}
 		pr := piProblem(poly.Poly{1}, den, 0, Range{-2, 10}, Range{-1 * w0, 4 * w0})
 		res := mustEdges(t, pr)
-		n := 0
-		for _, c := range res.Curves {
-			if c.Kind != stability.Complex {
-				continue
-			}
-			for _, p := range c.Points {
-				nu := p.Omega * p.Omega / (w0 * w0)
-				if !near(p.X, 3*nu-1, 1e-11) || !near(p.Y/w0, 3*nu-nu*nu, 1e-11) {
-					t.Fatalf("ω₀ = %g: point %+v off the scaled edge", w0, p)
-				}
-				n++
-			}
-		}
-		if n == 0 {
+		pts := complexPoints(res.Curves)
+		if len(pts) == 0 {
 			t.Fatalf("ω₀ = %g: no complex edge", w0)
+		}
+		for _, p := range pts {
+			nu := p.Omega * p.Omega / (w0 * w0)
+			if !near(p.X, 3*nu-1, 1e-11) || !near(p.Y/w0, 3*nu-nu*nu, 1e-11) {
+				t.Fatalf("ω₀ = %g: point %+v off the scaled edge", w0, p)
+			}
 		}
 		checkResiduals(t, pr, res.Curves)
 		checkSides(t, pr, res.Curves, 1e-6)

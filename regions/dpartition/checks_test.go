@@ -316,3 +316,14 @@ func checkRational(t *testing.T, pr Problem, cs []Curve, n int) {
 	checkSides(t, pr, cs, 1e-6)
 	checkAgainstGrid(t, pr, cs, n, 3e-3)
 }
+
+// complexPoints returns the points of every complex curve.
+func complexPoints(cs []Curve) []Point {
+	var out []Point
+	for _, c := range cs {
+		if c.Kind == stability.Complex {
+			out = append(out, c.Points...)
+		}
+	}
+	return out
+}
