@@ -256,3 +256,27 @@ type Result struct {
 	// frequencies are missing.
 	Complete bool
 }
+
+// Times returns the bilinear polynomial b·p: each part multiplied by p.
+func (b Bilinear) Times(p poly.Poly) Bilinear {
+	mul := func(q poly.Poly) poly.Poly {
+		if q.Degree() < 0 {
+			return nil
+		}
+		return poly.Mul(q, p)
+	}
+	return Bilinear{mul(b.A), mul(b.B), mul(b.C), mul(b.E)}
+}
+
+// FeedbackLoop returns the problem of the unity negative-feedback loop
+// around the plant N(s)·e^(−Ls)/D(s) and a controller Nc/Dc whose
+// coefficients are bilinear in the axis parameters (as family.Split gives
+// them): P = Dc·D and Q = Nc·N, or P = Dc·D + Nc·N without delay. The
+// products are formed exactly, part by part.
+func FeedbackLoop(ctrlNum, ctrlDen Bilinear, plantNum, plantDen poly.Poly, delay float64, x, y Range) Problem {
+	p, q := ctrlDen.Times(plantDen), ctrlNum.Times(plantNum)
+	if delay == 0 {
+		return Problem{P: Bilinear{poly.Add(p.A, q.A), poly.Add(p.B, q.B), poly.Add(p.C, q.C), poly.Add(p.E, q.E)}, X: x, Y: y}
+	}
+	return Problem{P: p, Q: q, Delay: delay, X: x, Y: y}
+}
