@@ -64,7 +64,7 @@ func (pc *pencil) omegaAt(pe piece, t float64) float64 {
 // solution count may differ from the piece's (two roots meeting at a fold,
 // or one leaving through infinity); the discriminant is then clamped at
 // zero, and if the sheet is still missing, ω is moved inside the piece by
-// a few units of rounding.
+// 1e-12 of its size, then by up to 1e-6.
 func (pc *pencil) pointAt(pe piece, omega float64) (Point, solution, bool) {
 	var sols [2]solution
 	for nudge := 0; nudge < 4; nudge++ {

@@ -11,38 +11,55 @@ import "math"
 // Method: the D-partition (D-decomposition) of Yu. I. Neimark (1948),
 // surveyed by E. N. Gryazina and B. T. Polyak, "Stability regions in the
 // parameter space: D-decomposition revisited", Automatica 42 (2006). At
-// s = jω, Re Δ = 0 and Im Δ = 0 are two equations in (x, y) for each ω; see
-// pencil for how they are solved (a 2×2 linear solve when Δ is affine in
-// x and y, a quadratic when it is bilinear). The side comes from Šiljak's
-// rule (D. D. Šiljak, Nonlinear Systems, 1969, recalled): walking along
-// increasing ω, the side with fewer unstable roots is on the left when
-// J = det ∂(Re Δ, Im Δ)/∂(x, y) > 0. Its sign convention follows from
-// the root's motion: with t = (x', y') the tangent and Δ_ω = j·Δ_s, a step
-// along the left normal moves the root by Re ds = −J·|t|²/|Δ_ω|², into the
-// left half plane when J > 0.
+// s = jω, Re Δ = 0 and Im Δ = 0 are two equations in (x, y) for each ω.
+// Seen as linear in y they are consistent only where the columns A + x·B
+// and C + x·E are parallel, a quadratic in x whose coefficients are cross
+// products [U, V] = Re U·Im V − Im U·Re V of the parts (linear when E = 0:
+// x = −[A, C]/[B, C], Cramer's rule for the 2×2 solve); y then follows by
+// least squares. Where the 2×2 system is singular at every ω (B and C
+// real multiples of each other on the axis, as for ideal PID in the
+// (kd, ki) plane), the edges are whole lines, one per frequency at which
+// the system is consistent.
 //
-// Completeness, rational loop: the critical frequencies (rationalCriticals)
-// are found exactly as roots of polynomials in ω², formed exactly from the
-// coefficients and solved by gonum's eigenvalues with Newton polishing.
-// Between two of them each solution is continuous and monotone in x and in
-// y, so it lies entirely inside or entirely outside the window, and one
-// evaluation decides which. No branch or closed curve is missed however
-// small it is: a closed curve has points of vertical and horizontal
-// tangent, which are critical frequencies. The limit is the root finder's:
-// a curve that only touches a window side, a double root, is still found,
-// since its stationary point is critical too.
+// The side comes from Šiljak's rule (D. D. Šiljak, Nonlinear Systems,
+// 1969, recalled): walking along increasing ω, the side with fewer
+// unstable roots is on the left when J = det ∂(Re Δ, Im Δ)/∂(x, y) > 0.
+// Its sign convention follows from the root's motion: with t = (x', y')
+// the tangent and w = Δ_x·x' + Δ_y·y' = −j·Δ_s, a step along the left
+// normal moves the root by Re ds = −J·|t|²/|w|², into the left half plane
+// when J > 0. The tests confirm it by eigenvalue counts on both sides.
+//
+// Completeness, rational loop: every frequency where a solution appears,
+// vanishes or goes to infinity, meets a window side, or has a stationary
+// x or y (a vertical or horizontal tangent, from the resultant of the
+// quadratic and its derivative in ω²) is a root of a polynomial in ω²
+// formed exactly from the coefficients, found by gonum's eigenvalues and
+// polished by Newton's method. Between two of them each solution is
+// continuous and monotone in x and in y, so it lies entirely inside or
+// entirely outside the window and one evaluation decides which. No branch
+// or closed curve is missed however small it is: a closed curve has
+// points of vertical and horizontal tangent, which are among those
+// frequencies. The limit is the root finder's on ill-conditioned
+// polynomials; a critical frequency too many only cuts a curve in two.
 //
 // Completeness, delay loop: the equations are transcendental, so ω is
-// swept with step control (sweeper) up to the bound of frequencyBound,
-// above which no point of the window can be on the edge. The sweep stops
-// at Options.MaxBranches branches instead when no bound exists, and the
-// result says so. Sign changes closer together than one step are the
-// limit: a curve that dips into the window and out again within one step
-// (ωL moving by less than π/16) is missed.
+// swept from 0 with a step that keeps the change of ωL below π/16 and
+// below a fifth of the distance from jω to the nearest root of a part, and
+// the sign changes of the same functions (discriminants, leading
+// coefficients, the quadratics at the window sides) are located by
+// bracketing to full precision. The sweep stops at a bound Ω above which
+// |P(jω)| > |Q(jω)| at every point of the window, so that no edge can
+// return (see Result.OmegaMax; the argument is written at
+// frequencyBound). Where no bound exists (a neutral-type edge, or a
+// vanishing leading coefficient, inside the window) it stops after
+// Options.MaxBranches branches and Result.Complete is false. Two sign
+// changes within one step are the limit: a curve that dips into the
+// window and out again within one step is missed.
 //
-// Each traced point is computed from its ω; the polylines follow the
-// curves to Options.Chord in window coordinates and end on the window
-// sides.
+// Each point is computed from its ω. Polylines follow their curves to
+// Options.Chord in window coordinates, checked at a quarter, half and
+// three quarters of each segment's parameter interval, with segments no
+// longer than 1/8 of a window side; they end exactly on the window sides.
 func Edges(p Problem, opt Options) (Result, error) {
 	p, err := p.normalized()
 	if err != nil {

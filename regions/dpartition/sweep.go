@@ -11,7 +11,7 @@ import (
 // the critical frequencies are sums of products of the parts' polynomials
 // and of cos ωL, sin ωL (and, for the bilinear discriminant, of cos 2ωL,
 // sin 2ωL). The step keeps ωL from moving more than phaseStep between two
-// samples, and keeps it below polyStep times the distance from jω to the
+// samples, and is at most polyStep times the distance from jω to the
 // nearest root of a part, the scale on which a polynomial factor changes.
 const (
 	phaseStep = math.Pi / 16
