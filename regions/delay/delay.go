@@ -29,8 +29,10 @@ import (
 // roots in the right half plane: a neutral-type loop with
 // |q_n/p_n| > 1 (q_n, p_n the leading coefficients of Q and P), a loop on
 // the neutral boundary |q_n/p_n| = 1 whose chain of roots approaches the
-// imaginary axis from the right, or an advanced-type loop. It is positive,
-// so Verdict.Class calls such a loop unstable.
+// imaginary axis from the right, or an advanced-type loop. A finite count
+// that reaches it (a retarded loop at a gain of 1e12, say) is reported as
+// InfinitelyMany too. It is positive, so Verdict.Class calls such a loop
+// unstable.
 const InfinitelyMany = math.MaxInt32
 
 // Test is the stability test for loops with dead time. The zero value is
