@@ -165,19 +165,23 @@ func (c *Counter) scale(P, Q []float64, L float64) bool {
 				}
 			}
 		}
+		// Multiplying by powers of two is exact unless a value leaves the
+		// range of normal numbers, which the check catches.
 		ok := true
-		for k, v := range P {
-			p[k] = math.Ldexp(v, k*e-top)
-			ok = ok && !math.IsInf(p[k], 0) && (p[k] == 0) == (v == 0)
-		}
-		for k, v := range Q {
-			q[k] = math.Ldexp(v, k*e-top)
-			ok = ok && !math.IsInf(q[k], 0) && (q[k] == 0) == (v == 0)
+		step, m0 := math.Ldexp(1, e), math.Ldexp(1, -top)
+		for _, pair := range [2][2][]float64{{P, p}, {Q, q}} {
+			m := m0
+			for k, v := range pair[0] {
+				w := v * m
+				pair[1][k] = w
+				ok = ok && math.Abs(w) <= math.MaxFloat64 && (w == 0) == (v == 0) && (w == 0 || math.Abs(w) >= 0x1p-1022)
+				m *= step
+			}
 		}
 		if ok {
 			c.res.nq = len(Q) - 1
 			c.res.rhoExp = e
-			c.res.delay = math.Ldexp(L, e)
+			c.res.delay = L * step
 			return !math.IsInf(c.res.delay, 0) && c.res.delay > 0
 		}
 		e = 0

@@ -58,7 +58,7 @@ func (r *rootFinder) positive(c []float64, dst []float64) []float64 {
 	case 1:
 		// Descartes: exactly one positive root, and c(0), c(bound)
 		// have opposite signs.
-		x := safeNewton(c, 0, bound, c[0])
+		x := safeNewton(c, 0, bound, c[0], 0.5*bound)
 		return append(dst, x)
 	}
 	copy(r.deriv[0], c)
@@ -88,7 +88,7 @@ func (r *rootFinder) positive(c []float64, dst []float64) []float64 {
 			case fr == 0 && i < len(r.b):
 				r.a = append(r.a, right)
 			case fl != 0 && (fl < 0) != (fr < 0):
-				r.a = append(r.a, safeNewton(p, left, right, fl))
+				r.a = append(r.a, safeNewton(p, left, right, fl, 0.5*(left+right)))
 			}
 			left, fl = right, fr
 		}
@@ -100,24 +100,30 @@ func (r *rootFinder) positive(c []float64, dst []float64) []float64 {
 }
 
 // safeNewton returns the root of c in (lo, hi), where c changes sign once
-// and c(lo) = flo: Newton steps kept inside a bracket that bisection
-// shrinks whenever a step would leave it or converge too slowly
-// (W. H. Press et al., Numerical Recipes, 3rd ed., Sec. 9.4, rtsafe).
-func safeNewton(c []float64, lo, hi, flo float64) float64 {
+// and c(lo) = flo, starting from x0: Newton steps kept inside a bracket
+// that bisection shrinks whenever a step would leave it or converge too
+// slowly (W. H. Press et al., Numerical Recipes, 3rd ed., Sec. 9.4,
+// rtsafe).
+func safeNewton(c []float64, lo, hi, flo, x0 float64) float64 {
 	neg := flo < 0 // c < 0 on the lo side of the root
-	x := 0.5 * (lo + hi)
+	x := x0
 	width := hi - lo
 	for it := 0; it < 200; it++ {
 		f, df := hornerDeriv(c, x)
 		if f == 0 {
 			return x
 		}
+		step := f / df
+		if math.Abs(step) <= 4*unit*math.Abs(x) {
+			// Converged to rounding: a further step is noise.
+			return x - step
+		}
 		if (f < 0) == neg {
 			lo = x
 		} else {
 			hi = x
 		}
-		next := x - f/df
+		next := x - step
 		if !(next > lo && next < hi) || math.Abs(next-x) > 0.5*width {
 			next = 0.5 * (lo + hi)
 		}
@@ -130,21 +136,45 @@ func safeNewton(c []float64, lo, hi, flo float64) float64 {
 	return x
 }
 
-// rootBound returns Fujiwara's bound 2·max |c_k/c_d|^(1/(d−k)) on the
-// modulus of every root of c (M. Fujiwara, Tôhoku Math. J. 10, 1916), the
-// end of the search interval, made a little larger so that the sign at
-// the bound is the sign of the leading coefficient.
+// rootBound returns Fujiwara's bound 2·max |c_k/c_d|^(1/(d−k)), the
+// constant term halved, on the modulus of every root of c (M. Fujiwara,
+// Tôhoku Math. J. 10, 1916), made a little larger so that no root sits on
+// it: past it the sign of c is that of its leading coefficient. Each term
+// is first bounded by a power of two from the exponents alone, within a
+// factor two of it, and only the terms that can be the largest are
+// computed with a power.
 func rootBound(c []float64) float64 {
 	d := len(c) - 1
-	lead := math.Abs(c[d])
+	_, ed := math.Frexp(c[d])
+	est := func(k int) int {
+		// |c_k/c_d| < 2^(ek − ed + 1), halved for k = 0; ⌈e/j⌉ with Go's
+		// division truncating towards zero.
+		_, ek := math.Frexp(c[k])
+		e := ek - ed + 1
+		if k == 0 {
+			e--
+		}
+		j := d - k
+		q := e / j
+		if e%j != 0 && e > 0 {
+			q++
+		}
+		return q
+	}
+	top := math.MinInt
+	for k := 0; k < d; k++ {
+		if c[k] != 0 {
+			top = max(top, est(k))
+		}
+	}
 	m := 0.0
 	for k := 0; k < d; k++ {
-		if c[k] == 0 {
+		if c[k] == 0 || est(k) < top-2 {
 			continue
 		}
-		v := math.Abs(c[k]) / lead
+		v := math.Abs(c[k] / c[d])
 		if k == 0 {
-			v /= 2 // Fujiwara's bound halves the constant term
+			v /= 2
 		}
 		m = math.Max(m, math.Pow(v, 1/float64(d-k)))
 	}
