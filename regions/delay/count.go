@@ -85,7 +85,8 @@ type cut struct {
 type form int8
 
 const (
-	rational form = iota
+	unknown  form = iota // not reached: the input cannot be analysed
+	rational             // no delayed part: the sign array decides
 	retarded
 	neutral
 	advanced

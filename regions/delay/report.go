@@ -17,7 +17,7 @@ import (
 func (c *Counter) Report(f stability.Function) stability.Report {
 	c.analyse(f)
 	r := &c.res
-	if r.form == rational && r.reason != "the delay is not a finite non-negative number" {
+	if r.form == rational {
 		return signArrayReport(f)
 	}
 	rep := stability.Report{Verdict: r.v, Method: "argument principle along the imaginary axis, cut where |P(jω)| = |Q(jω)|", Reason: r.reason}
