@@ -112,10 +112,8 @@ func TestRightmostNeutral(t *testing.T) {
 	}
 }
 
-// TestShift checks Shift against Δ(s + a) evaluated directly, and that its
-// count is the count of roots right of a: for s + 1 + K·e^(−s) with
-// K = 0.5 the only real root is where s + 1 = −0.5·e^(−s)... rather, the
-// pair structure is left to TestRightmostRandomLoops; here the values.
+// TestShift checks Shift against Δ(s + a) evaluated directly on an
+// invented loop; TestRightmostRandomLoops checks its counts.
 func TestShift(t *testing.T) {
 	f := stability.Function{P: poly.Poly{2, -1, 0.5, 1}, Q: poly.Poly{0.3, 1.2}, Delay: 0.7}
 	for _, a := range []float64{-1.5, 0.25, 2} {
