@@ -68,3 +68,40 @@ func ExampleCheck() {
 	// plant is not proper: numerator degree 3 exceeds denominator degree 2
 	// <nil>
 }
+
+func ExampleParsePlant() {
+	// An invented heating zone: gain 2, lags of 4 s and 1 s, dead time 1.5 s.
+	pl, err := expr.ParsePlant("2*exp(-1.5*s)/((4*s+1)*(s+1))")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println("num:", pl.Num)
+	fmt.Println("den:", pl.Den)
+	fmt.Println("delay:", pl.Delay)
+
+	_, err = expr.ParsePlant("1/((s+1)*exp(-2*s))")
+	fmt.Println(err)
+	// Output:
+	// num: 2
+	// den: 4·s^2 + 5·s + 1
+	// delay: 1.5
+	// plant expression "1/((s+1)*exp(-2*s))": at column 10: a dead time in a divisor is a predictor e^(+L*s), which no plant has; write exp(-L*s) in the numerator
+}
+
+func ExampleParseIn() {
+	// An invented sampled-data plant given directly in z, with one sample
+	// of delay written as 1/z.
+	pl, err := expr.ParseIn("0.1/(z*(z-0.9))", 'z')
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(pl.Num, "over", pl.Den.Descending())
+
+	_, err = expr.ParseIn("0.1/(s+1)", 'z')
+	fmt.Println(err)
+	// Output:
+	// 0.1 over [1 -0.9 0]
+	// plant expression "0.1/(s+1)": at column 6: unknown name "s": the only variable is z; an expression in z describes a sampled-data plant and cannot contain s
+}

@@ -2,55 +2,99 @@ package expr
 
 import (
 	"errors"
+	"math"
+	"slices"
+	"strings"
 	"testing"
 	"time"
 	"unicode/utf8"
 )
 
-// FuzzParse checks that Parse never panics or runs long, that every error
-// is a *SyntaxError positioned inside the input, and that every result is
-// a usable pair: finite coefficients, a denominator that is not zero with
-// a positive leading coefficient, and degrees within MaxDegree. The seed
-// corpus is in testdata/fuzz/FuzzParse.
+// FuzzParse checks that Parse never panics or runs long and that its
+// results pass checkParsed. The seed corpus is in testdata/fuzz/FuzzParse.
 func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, src string) {
 		start := time.Now()
 		num, den, err := Parse(src)
-		// Any input within MaxLen parses in milliseconds; a second means
-		// a limit is not doing its job.
-		if d := time.Since(start); d > time.Second {
-			t.Errorf("Parse(%q) took %v", src, d)
+		checkParsed(t, "Parse", src, time.Since(start), Plant{Num: num, Den: den, Var: 's'}, err)
+	})
+}
+
+// FuzzParsePlant checks ParsePlant and ParseIn in z as FuzzParse checks
+// Parse, and also that the delay is finite and non-negative, that a plant
+// in z has none, and that where the text holds no exp, ParsePlant and
+// Parse agree exactly.
+func FuzzParsePlant(f *testing.F) {
+	for _, s := range []string{
+		"2*exp(-1.5*s)/((4*s+1)*(s+1))", "exp(-s*0.25)/(s+1)", "exp(2*s)", "exp(-s^2)",
+		"exp(-s)*exp(-s)", "1/exp(-s)", "exp(-s)+1", "exp(-s)^2", "exp(-0*s)",
+		"0.2*(z+0.8)/((z-0.9)*(z-0.5))", "exp(-z)", "1/(z^3-0.5)",
+	} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, src string) {
+		start := time.Now()
+		pl, err := ParsePlant(src)
+		checkParsed(t, "ParsePlant", src, time.Since(start), pl, err)
+		if err == nil && (!(pl.Delay >= 0) || math.IsInf(pl.Delay, 0)) {
+			t.Fatalf("ParsePlant(%q) delay %g", src, pl.Delay)
 		}
-		if err != nil {
-			var se *SyntaxError
-			if !errors.As(err, &se) {
-				t.Fatalf("Parse(%q) error %v is %T, want *SyntaxError", src, err, err)
+		if !strings.Contains(src, "exp") {
+			num, den, err2 := Parse(src)
+			if (err == nil) != (err2 == nil) || err == nil && (!slices.Equal(num, pl.Num) || !slices.Equal(den, pl.Den)) {
+				t.Fatalf("ParsePlant(%q) = %+v, %v but Parse gives %v, %v, %v", src, pl, err, num, den, err2)
 			}
-			if se.Src != src || se.Pos < 0 || se.Pos > len(src) {
-				t.Fatalf("Parse(%q) error has source %q and position %d", src, se.Src, se.Pos)
-			}
-			if msg := err.Error(); msg == "" || !utf8.ValidString(msg) {
-				t.Fatalf("Parse(%q) error message %q", src, msg)
-			}
-			return
 		}
-		if len(num) == 0 || len(den) == 0 {
-			t.Fatalf("Parse(%q) = %v, %v: empty polynomial", src, num, den)
-		}
-		if !num.Finite() || !den.Finite() {
-			t.Fatalf("Parse(%q) = %v, %v: coefficients not finite", src, num, den)
-		}
-		d := den.Degree()
-		if d < 0 {
-			t.Fatalf("Parse(%q) denominator is zero", src)
-		}
-		if den[d] <= 0 {
-			t.Fatalf("Parse(%q) denominator %v has a leading coefficient that is not positive", src, den)
-		}
-		if len(num)-1 > MaxDegree || len(den)-1 > MaxDegree {
-			t.Fatalf("Parse(%q) degrees %d, %d exceed MaxDegree", src, len(num)-1, len(den)-1)
+		start = time.Now()
+		pz, err := ParseIn(src, 'z')
+		checkParsed(t, "ParseIn", src, time.Since(start), pz, err)
+		if err == nil && (pz.Delay != 0 || pz.Var != 'z') {
+			t.Fatalf("ParseIn(%q, 'z') = %+v", src, pz)
 		}
 	})
+}
+
+// checkParsed checks one result of a plant reader: it returned within a
+// second, every error is a *SyntaxError positioned inside the input, and
+// every plant is usable: finite coefficients, a denominator that is not
+// zero with a positive leading coefficient, and degrees within MaxDegree.
+func checkParsed(t *testing.T, fn, src string, took time.Duration, pl Plant, err error) {
+	t.Helper()
+	// Any input within MaxLen parses in milliseconds; a second means
+	// a limit is not doing its job.
+	if took > time.Second {
+		t.Errorf("%s(%q) took %v", fn, src, took)
+	}
+	if err != nil {
+		var se *SyntaxError
+		if !errors.As(err, &se) {
+			t.Fatalf("%s(%q) error %v is %T, want *SyntaxError", fn, src, err, err)
+		}
+		if se.Src != src || se.Pos < 0 || se.Pos > len(src) {
+			t.Fatalf("%s(%q) error has source %q and position %d", fn, src, se.Src, se.Pos)
+		}
+		if msg := err.Error(); msg == "" || !utf8.ValidString(msg) {
+			t.Fatalf("%s(%q) error message %q", fn, src, msg)
+		}
+		return
+	}
+	num, den := pl.Num, pl.Den
+	if len(num) == 0 || len(den) == 0 {
+		t.Fatalf("%s(%q) = %v, %v: empty polynomial", fn, src, num, den)
+	}
+	if !num.Finite() || !den.Finite() {
+		t.Fatalf("%s(%q) = %v, %v: coefficients not finite", fn, src, num, den)
+	}
+	d := den.Degree()
+	if d < 0 {
+		t.Fatalf("%s(%q) denominator is zero", fn, src)
+	}
+	if den[d] <= 0 {
+		t.Fatalf("%s(%q) denominator %v has a leading coefficient that is not positive", fn, src, den)
+	}
+	if len(num)-1 > MaxDegree || len(den)-1 > MaxDegree {
+		t.Fatalf("%s(%q) degrees %d, %d exceed MaxDegree", fn, src, len(num)-1, len(den)-1)
+	}
 }
 
 // FuzzParseList checks that ParseList never panics, that its errors are

@@ -62,45 +62,62 @@ const MaxDegree = 128
 // leaves behind, are dropped without changing the polynomial, so len(p)-1
 // is the degree of each result unless it is the zero polynomial {0}.
 //
+// A dead time factor exp(-L*s) is refused with a message that suggests a
+// rational approximation; ParsePlant reads plants that keep the delay.
 // Parse does not check that the plant is proper; callers that need it call
 // Check. Inputs longer than MaxLen bytes, nested deeper than MaxDepth or
 // with a result of degree above MaxDegree are rejected, so no input can
 // take long or exhaust the stack. Every error is a *SyntaxError.
 func Parse(src string) (num, den poly.Poly, err error) {
+	pl, err := parse(src, 's', false)
+	return pl.Num, pl.Den, err
+}
+
+// parse reads src as a transfer function in the variable v, with one dead
+// time factor if delays is set; see Parse and ParsePlant.
+func parse(src string, v byte, delays bool) (Plant, error) {
 	if len(src) > MaxLen {
-		return nil, nil, &SyntaxError{Src: src, Pos: MaxLen,
+		return Plant{}, &SyntaxError{Src: src, Pos: MaxLen,
 			Msg: fmt.Sprintf("the expression is %d bytes long, more than the limit of %d", len(src), MaxLen)}
 	}
-	toks, err := scan(src)
+	toks, err := scan(src, v)
 	if err != nil {
-		return nil, nil, err
+		return Plant{}, err
 	}
 	if toks[0].kind == tEOF {
-		return nil, nil, &SyntaxError{Src: src, Pos: 0,
-			Msg: "the expression is empty; write a transfer function in s such as 1/(s+1)"}
+		return Plant{}, &SyntaxError{Src: src, Pos: 0,
+			Msg: fmt.Sprintf("the expression is empty; write a transfer function in %c such as 1/(%c+1)", v, v)}
 	}
-	p := &parser{src: src, toks: toks}
+	p := &parser{src: src, toks: toks, v: v, delays: delays, delayPos: -1}
 	r, err := p.expr()
 	if err != nil {
-		return nil, nil, err
+		return Plant{}, err
 	}
 	if t := p.peek(); t.kind != tEOF {
-		return nil, nil, p.misplaced(t, nil)
+		return Plant{}, p.misplaced(t, nil)
 	}
-	num, den = r.num.p, r.den.p
+	num, den := r.num.p, r.den.p
 	if den[den.Degree()] < 0 {
 		num, den = poly.Sub(nil, num), poly.Sub(nil, den)
 	}
-	return num, den, nil
+	pl := Plant{Num: num, Den: den, Var: v}
+	if r.delayed {
+		pl.Delay = p.delay
+	}
+	return pl, nil
 }
 
 // parser is a recursive-descent parser over the tokens of one expression.
 // Each method parses one rule of the grammar in Parse's doc comment.
 type parser struct {
-	src   string
-	toks  []token
-	i     int // index of the next token
-	depth int // current nesting of parentheses and unary signs
+	src      string
+	toks     []token
+	i        int  // index of the next token
+	depth    int  // current nesting of parentheses and unary signs
+	v        byte // the variable, s or z
+	delays   bool // a dead time factor is allowed
+	delayPos int  // byte offset of the exp met, −1 before one
+	delay    float64
 }
 
 func (p *parser) peek() token { return p.toks[p.i] }
@@ -141,6 +158,9 @@ func (p *parser) expr() (ratio, error) {
 		if err != nil {
 			return ratio{}, err
 		}
+		if a.delayed || b.delayed {
+			return ratio{}, p.errorf(p.delayPos, "the dead time must multiply the whole plant, not one term of this %q", op.text)
+		}
 		n, d := sumSizes(a, b)
 		if err := p.checkDegree(op, n, d); err != nil {
 			return ratio{}, err
@@ -179,6 +199,9 @@ func (p *parser) term() (ratio, error) {
 		} else {
 			if b.num.isZero() {
 				return ratio{}, p.errorf(op.pos, "division by zero: the divisor after this \"/\" is identically zero")
+			}
+			if b.delayed {
+				return ratio{}, p.errorf(p.delayPos, "a dead time in a divisor is a predictor e^(+L*s), which no plant has; write exp(-L*s) in the numerator")
 			}
 			if err := p.checkDegree(op, a.num.size()+b.den.size(), a.den.size()+b.num.size()); err != nil {
 				return ratio{}, err
@@ -224,6 +247,10 @@ func (p *parser) power() (ratio, error) {
 	}
 	if t := p.peek(); t.kind == tCaret {
 		return ratio{}, p.errorf(t.pos, "a second \"^\" is ambiguous; use parentheses, as in (s^2)^3")
+	}
+	if a.delayed && k != 1 {
+		return ratio{}, p.errorf(op.pos, "a power of the dead time factor; write the total delay in one factor, as in exp(-%s*s)",
+			strconv.FormatFloat(p.delay*float64(k), 'g', -1, 64))
 	}
 	if err := p.checkDegree(op, a.num.size()*k, a.den.size()*k); err != nil {
 		return ratio{}, err
@@ -291,25 +318,28 @@ func (p *parser) primary() (ratio, error) {
 		p.depth--
 		return a, nil
 	case tName:
+		if t.text == "exp" {
+			return p.delayFactor(t)
+		}
 		return ratio{}, p.unknownName(t)
 	case tEOF:
-		return ratio{}, p.errorf(t.pos, "expected a number, s or \"(\" but the expression ended")
+		return ratio{}, p.errorf(t.pos, "expected a number, %c or \"(\" but the expression ended", p.v)
 	}
 	if t.kind == tStar && p.i >= 2 && p.toks[p.i-2].kind == tStar {
 		return ratio{}, p.errorf(t.pos, "\"**\" is not an operator; use \"^\" for powers, as in s^2")
 	}
-	return ratio{}, p.errorf(t.pos, "expected a number, s or \"(\" but found %s", t.describe())
+	return ratio{}, p.errorf(t.pos, "expected a number, %c or \"(\" but found %s", p.v, t.describe())
 }
 
 // misplaced reports token t, found where an operator was expected, or the
 // end of the expression if open is nil, or else the ")" closing open.
 func (p *parser) misplaced(t token, open *token) error {
-	switch t.kind {
-	case tNum, tVar, tLParen:
+	switch {
+	case t.kind == tNum || t.kind == tVar || t.kind == tLParen || t.kind == tName && t.text == "exp":
 		return p.errorf(t.pos, "expected \"*\" before %s; multiplication must be written out", t.describe())
-	case tName:
+	case t.kind == tName:
 		return p.unknownName(t)
-	case tRParen:
+	case t.kind == tRParen:
 		return p.errorf(t.pos, "unexpected \")\" with no matching \"(\"")
 	}
 	// The loops in expr, term and power consume every operator, so what
@@ -324,12 +354,14 @@ func (p *parser) misplaced(t token, open *token) error {
 // unknownHints adds advice to the message for names a user is likely to
 // try in a plant.
 var unknownHints = map[string]string{
-	"S":   "; names are case-sensitive",
-	"exp": "; replace a time delay by a rational approximation such as a Padé approximant",
+	"S": "; names are case-sensitive",
+	"Z": "; names are case-sensitive",
+	"s": "; an expression in z describes a sampled-data plant and cannot contain s",
+	"z": "; z belongs to sampled-data plants, which are read as expressions in z",
 }
 
 func (p *parser) unknownName(t token) error {
-	return p.errorf(t.pos, "unknown name %q: the only variable is s%s", t.text, unknownHints[t.text])
+	return p.errorf(t.pos, "unknown name %q: the only variable is %c%s", t.text, p.v, unknownHints[t.text])
 }
 
 // checkDegree fails at op if a result would exceed MaxDegree.

@@ -34,8 +34,9 @@ func TestParseErrors(t *testing.T) {
 		{"unknown name x", "x+1", 1, []string{`unknown name "x"`, "variable is s"}},
 		{"unknown name z", "1/(z+1)", 4, []string{`unknown name "z"`, "variable is s"}},
 		{"upper-case S", "1/(S+1)", 4, []string{`unknown name "S"`, "case-sensitive"}},
-		{"time delay", "exp(-2*s)/(s+1)", 1, []string{`unknown name "exp"`, "Padé"}},
-		{"name glued to a number", "2exp", 2, []string{`unknown name "exp"`}},
+		{"time delay", "exp(-2*s)/(s+1)", 1, []string{"dead time", "not accepted", "Padé"}},
+		{"name glued to a number", "2exp", 2, []string{`expected "*" before "exp"`}},
+		{"other name glued to a number", "2x", 2, []string{`unknown name "x"`}},
 
 		{"negative exponent", "s^-1", 3, []string{"negative exponents"}},
 		{"fractional exponent", "(s+1)^0.5", 7, []string{"fractional exponent 0.5"}},

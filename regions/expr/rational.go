@@ -81,13 +81,15 @@ func (a bounded) isZero() bool {
 // finite reports whether every coefficient and bound is a finite number.
 func (a bounded) finite() bool { return a.p.Finite() && a.mag.Finite() }
 
-// ratio is a rational function num/den. Common factors are never
-// cancelled; see Parse.
+// ratio is a rational function num/den, times the dead time factor of
+// the expression when delayed is set. Common factors are never cancelled;
+// see Parse.
 type ratio struct {
 	num, den bounded
+	delayed  bool
 }
 
-func polynomial(a bounded) ratio { return ratio{a, constant(1)} }
+func polynomial(a bounded) ratio { return ratio{num: a, den: constant(1)} }
 
 // sameDen reports whether a and b have the same denominator, coefficient
 // for coefficient. Exact equality is enough here: it only decides whether
@@ -120,23 +122,26 @@ func sum(a, b ratio, subtract bool) ratio {
 		combine = bounded.minus
 	}
 	if sameDen(a, b) {
-		return ratio{combine(a.num, b.num), a.den}
+		return ratio{num: combine(a.num, b.num), den: a.den}
 	}
-	return ratio{combine(a.num.times(b.den), b.num.times(a.den)), a.den.times(b.den)}
+	return ratio{num: combine(a.num.times(b.den), b.num.times(a.den)), den: a.den.times(b.den)}
 }
 
+// product returns a·b; the parser allows at most one delayed factor.
 func product(a, b ratio) ratio {
-	return ratio{a.num.times(b.num), a.den.times(b.den)}
+	return ratio{a.num.times(b.num), a.den.times(b.den), a.delayed || b.delayed}
 }
 
 // quotient returns a/b as (a.num·b.den)/(a.den·b.num). The caller has
-// checked that b.num is not zero.
+// checked that b.num is not zero and that b carries no delay.
 func quotient(a, b ratio) ratio {
-	return ratio{a.num.times(b.den), a.den.times(b.num)}
+	return ratio{a.num.times(b.den), a.den.times(b.num), a.delayed}
 }
 
-func (a ratio) negated() ratio { return ratio{a.num.negated(), a.den} }
+func (a ratio) negated() ratio { return ratio{a.num.negated(), a.den, a.delayed} }
 
-func (a ratio) pow(k int) ratio { return ratio{a.num.pow(k), a.den.pow(k)} }
+// pow returns a^k; the caller has checked that a carries no delay unless
+// k is 1.
+func (a ratio) pow(k int) ratio { return ratio{a.num.pow(k), a.den.pow(k), a.delayed} }
 
 func (a ratio) finite() bool { return a.num.finite() && a.den.finite() }

@@ -13,7 +13,7 @@ type kind int
 const (
 	tEOF kind = iota
 	tNum
-	tVar   // the variable s
+	tVar   // the variable, s or z
 	tName  // any other name; always an error, reported by the parser with context
 	tPlus  // +
 	tMinus // -
@@ -55,8 +55,9 @@ var lookalikes = map[rune]string{
 	',': `"." as the decimal point, and "*" or "+" between terms`,
 }
 
-// scan splits src into tokens, ending with a tEOF token at len(src).
-func scan(src string) ([]token, error) {
+// scan splits src into tokens, ending with a tEOF token at len(src). The
+// name v is the variable; every other name is a tName.
+func scan(src string, v byte) ([]token, error) {
 	var toks []token
 	i := 0
 	for i < len(src) {
@@ -83,7 +84,7 @@ func scan(src string) ([]token, error) {
 				end++
 			}
 			k := tName
-			if src[i:end] == "s" {
+			if end == i+1 && src[i] == v {
 				k = tVar
 			}
 			toks = append(toks, token{kind: k, pos: i, text: src[i:end]})
