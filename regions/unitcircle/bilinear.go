@@ -2,6 +2,7 @@ package unitcircle
 
 import (
 	"math"
+	"math/cmplx"
 	"slices"
 
 	"gainscape/regions/poly"
@@ -51,8 +52,9 @@ func bilinearBasis(m int) [][]float64 {
 // of each p_j, propagated) is set to zero exactly: P(1) formed from
 // coefficients that cancel (an integrator on both sides of the loop, a
 // point on an edge) is zero, not 1e-17, and the array then sees the root
-// at w = 0 for what it is.
-func mapToHalfPlane(q, p []float64, basis [][]float64) {
+// at w = 0 for what it is. judged reports whether any coefficient was
+// set to zero so.
+func mapToHalfPlane(q, p []float64, basis [][]float64) (judged bool) {
 	m := len(p) - 1
 	for k := 0; k <= m; k++ {
 		var sum, comp, size float64
@@ -67,11 +69,12 @@ func mapToHalfPlane(q, p []float64, basis [][]float64) {
 			size += math.Abs(h)
 		}
 		v := sum + comp
-		if math.Abs(v) <= (inputUlps+1)*unit*size {
-			v = 0
+		if v != 0 && math.Abs(v) <= (inputUlps+1)*unit*size {
+			v, judged = 0, true
 		}
 		q[k] = v
 	}
+	return judged
 }
 
 // toHalfPlane returns mapToHalfPlane's image of p.
@@ -115,29 +118,40 @@ type analysis struct {
 	reason string
 }
 
-// analyse decides where the roots of p lie when the recursion could not:
-// leading coefficients negligible against the largest (routh.InputTol)
-// are roots at infinity; exact zeros at the bottom are roots at z = 0,
-// which lie inside and are removed; what remains is mapped to the half
-// plane and counted by the sign array with its ε rule, auxiliary
-// polynomial and eigenvalue confirmation. A leading coefficient that is
-// negligible in this sense cannot hide a stable polynomial: one with every
-// root inside the circle has |p_j| ≤ C(n, j)·|p_n|, so its leading
-// coefficient is at least 2^(−n) of the largest.
+// clusterTol is how near z = 1 or z = −1 (in z) the eigenvalues of P must
+// show as many roots as the sign array finds there. A root of
+// multiplicity k is found by the eigenvalues to about the k-th root of
+// the rounding, so 1e-3 admits clusters of four or five.
+const clusterTol = 1e-3
+
+// analyse decides where the roots of p lie when the faster stages could
+// not: leading coefficients that are exactly zero are roots at infinity;
+// exact zeros at the bottom are roots at z = 0, which lie inside and are
+// removed; what remains is mapped to the half plane and counted by the
+// complete sign-array analysis with its ε rule, auxiliary polynomial and
+// eigenvalue confirmation.
+//
+// Roots the array places at w = 0 or w = ∞ (z = 1, z = −1) come from
+// coefficients of Q judged zero, and a polynomial can make its
+// coefficients cancel so heavily that rounding decides them without any
+// root being near those points: (z − 0.9)^20 rounded to double precision
+// has roots spread from 0.6 to 1.2 and a mapped constant coefficient
+// 1e-20 of its terms. Such roots are therefore confirmed by the
+// eigenvalues of P (as many within clusterTol of the point), and the
+// verdict is undecided where they are not there.
 func analyse(p poly.Poly) analysis {
 	var an analysis
 	if len(p) == 0 || !p.Finite() {
 		an.verdict, an.reason = undecided(), "the coefficients are not finite numbers"
 		return an
 	}
-	scale := p.Scale()
-	if scale == 0 {
+	hi := len(p) - 1
+	for hi >= 0 && p[hi] == 0 {
+		hi--
+	}
+	if hi < 0 {
 		an.verdict, an.reason = undecided(), "every coefficient is zero"
 		return an
-	}
-	hi := len(p) - 1
-	for math.Abs(p[hi]) <= routh.InputTol*scale {
-		hi--
 	}
 	an.verdict.Infinite = len(p) - 1 - hi
 	if an.verdict.Infinite > 0 {
@@ -157,6 +171,26 @@ func analyse(p poly.Poly) analysis {
 	if an.sign.Undecided {
 		an.verdict, an.reason = undecided(), an.sign.Reason
 		return an
+	}
+	if an.sign.ZeroRoots > 0 || an.sign.DegreeDrop > 0 {
+		roots, err := core.Roots()
+		if err != nil {
+			an.verdict, an.reason = undecided(), "the eigenvalues could not be found to confirm the roots at z = ±1"
+			return an
+		}
+		near1, nearM1 := 0, 0
+		for _, r := range roots {
+			if cmplx.Abs(r-1) <= clusterTol {
+				near1++
+			}
+			if cmplx.Abs(r+1) <= clusterTol {
+				nearM1++
+			}
+		}
+		if near1 < an.sign.ZeroRoots || nearM1 < an.sign.DegreeDrop {
+			an.verdict, an.reason = undecided(), "the coefficients cancel so heavily at z = ±1 that rounding decides where the roots lie"
+			return an
+		}
 	}
 	an.verdict.Unstable = an.sign.RHP
 	an.verdict.Boundary = an.sign.JW + an.sign.DegreeDrop

@@ -57,14 +57,17 @@ func (g *Grade) add(re, im float64) {
 	}
 }
 
-// Grader grades polynomials in z up to a fixed size without allocating:
-// the roots are the eigenvalues of the companion matrix (first row
-// −p[n−1…0]/p[n], ones below the diagonal), which is upper Hessenberg
+// Grader grades polynomials in z up to a fixed size, reusing its
+// buffers: the roots are the eigenvalues of the companion matrix (first
+// row −p[n−1…0]/p[n], ones below the diagonal), which is upper Hessenberg
 // already, so it is balanced by diagonal scaling (B. N. Parlett,
 // C. Reinsch, Numer. Math. 13, 1969; gonum's Dgebal) and handed to the
 // double-shift QR algorithm (J. G. F. Francis, Computer Journal 4,
-// 1961–62; gonum's Dlahqr): the path poly.Roots takes through mat.Eigen,
-// with the buffers kept. A Grader is not safe for concurrent use.
+// 1961–62; gonum's Dlahqr): the path poly.Roots takes through mat.Eigen
+// without its matrices and workspace. Dlahqr itself still allocates a
+// three-entry array per QR step (gonum v0.17: it escapes to the heap),
+// about one per root, so the Grader allocates less than poly.Roots but
+// not nothing. A Grader is not safe for concurrent use.
 type Grader struct {
 	T                float64
 	h, scale, wr, wi []float64

@@ -128,10 +128,12 @@ func (c *Counter) count(f stability.Function) (stability.Verdict, int) {
 		}
 		core := p[lo:]
 		q := c.q[:len(core)]
-		mapToHalfPlane(q, core, c.basis[len(core)-1])
-		rhp, zeros, st := routh.Count(q, c.signWork)
-		if st == routh.Decided {
-			return stability.Verdict{Unstable: rhp, Boundary: zeros}, bySignArray
+		// A coefficient judged zero puts a root at z = ±1 that the full
+		// analysis confirms.
+		if !mapToHalfPlane(q, core, c.basis[len(core)-1]) {
+			if rhp, zeros, st := routh.Count(q, c.signWork); st == routh.Decided {
+				return stability.Verdict{Unstable: rhp, Boundary: zeros}, bySignArray
+			}
 		}
 	}
 	return analyse(p).verdict, byAnalysis
