@@ -108,3 +108,29 @@ func TestRecursionRowsAreJuryRows(t *testing.T) {
 		}
 	}
 }
+
+// TestReportOfASingularCase: for (z² − z + 1)(z − 0.5) (invented; roots
+// e^(±jπ/3) and 0.5) the first step of the recursion is regular
+// (γ = −0.5) and leaves 0.75(z² − z + 1), which is singular; the report
+// shows the sign array of Q(w) and its auxiliary polynomial mapped back
+// to z, whose roots are the pair on the circle. By hand,
+// Q(w) = (3w² + 1)(1.5w + 0.5), and the even factor 3w² + 1 maps back to
+// a multiple of z² − z + 1.
+func TestReportOfASingularCase(t *testing.T) {
+	rep := Test{T: 1}.Report(stability.Function{P: poly.FromDescending([]float64{1, -1.5, 1.5, -0.5})})
+	if rep.Method != "bilinear map z = (1 + w)/(1 − w) and sign array" {
+		t.Fatalf("method %q", rep.Method)
+	}
+	if len(rep.Table) == 0 || rep.Table[0].Label[:2] != "w^" {
+		t.Errorf("table %+v", rep.Table)
+	}
+	roots, err := rep.Auxiliary.Roots()
+	if err != nil || len(roots) != 2 {
+		t.Fatalf("auxiliary %v: roots %v, %v", rep.Auxiliary, roots, err)
+	}
+	for _, r := range roots {
+		if math.Abs(real(r)-0.5) > 1e-12 || math.Abs(math.Abs(imag(r))-math.Sqrt(3)/2) > 1e-12 {
+			t.Errorf("auxiliary root %v, want e^(±jπ/3)", r)
+		}
+	}
+}

@@ -56,6 +56,8 @@ type Test struct {
 	T float64
 }
 
+var _ stability.Test = Test{}
+
 // New returns the test for sample time T, or an error that carries T if
 // it is not positive and finite.
 func New(T float64) (Test, error) {
