@@ -20,7 +20,7 @@ const inputUlps = 4
 // WorkLen returns the scratch length schurCohn needs for polynomials with
 // up to n coefficients: two rows, each coefficient a value and the running
 // bound on its rounding error side by side.
-func WorkLen(n int) int { return 4 * max(n, 1) }
+func workLen(n int) int { return 4 * max(n, 1) }
 
 // schurCohn counts the roots of p (ascending coefficients, in z) strictly
 // outside the unit circle by the Schur–Cohn recursion (I. Schur, J. reine

@@ -88,7 +88,7 @@ type Counter struct {
 
 func newCounter(n int) *Counter {
 	n = max(n, 1)
-	c := &Counter{n: n, work: make([]float64, WorkLen(n)), q: make([]float64, n),
+	c := &Counter{n: n, work: make([]float64, workLen(n)), q: make([]float64, n),
 		signWork: make([]float64, routh.WorkLen(n-1)), basis: make([][][]float64, n)}
 	for m := range c.basis {
 		c.basis[m] = bilinearBasis(m)
@@ -150,7 +150,7 @@ func (t Test) Report(f stability.Function) stability.Report {
 	v, stage := newCounter(len(f.P)).count(f)
 	if stage == byRecursion {
 		var rows []stability.Row
-		schurCohn(f.P, make([]float64, WorkLen(len(f.P))), &rows)
+		schurCohn(f.P, make([]float64, workLen(len(f.P))), &rows)
 		return stability.Report{
 			Verdict: v,
 			Method:  "Schur–Cohn recursion",
