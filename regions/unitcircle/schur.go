@@ -17,7 +17,7 @@ const unit = 0x1p-53
 // tests trust their inputs alike.
 const inputUlps = 4
 
-// WorkLen returns the scratch length schurCohn needs for polynomials with
+// workLen returns the scratch length schurCohn needs for polynomials with
 // up to n coefficients: two rows, each coefficient a value and the running
 // bound on its rounding error side by side.
 func workLen(n int) int { return 4 * max(n, 1) }
