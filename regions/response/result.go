@@ -13,8 +13,8 @@ type Result struct {
 	Time []float64 `json:"time"`
 	// Setpoint is the response to r = 1 (d = 0); Load the response to
 	// d = 1 (r = 0), where e = −y.
-	Setpoint Trace `json:"setpoint"`
-	Load     Trace `json:"load"`
+	Setpoint Trace   `json:"setpoint"`
+	Load     Trace   `json:"load"`
 	Figures  Figures `json:"figures"`
 	Span     Span    `json:"span"`
 	// Poles are the closed-loop poles the window was chosen from, slowest
