@@ -67,9 +67,9 @@ func firstReach(w wave, level, dir float64) float64 {
 		if k == w.steps() || w.at == nil {
 			continue
 		}
-		c := w.hermite(k)
-		for _, th := range c.critical() {
-			if g(c.at(th)) < 0 {
+		tr := w.turns[k]
+		for i, th := range tr.at[:tr.n] {
+			if g(tr.v[i]) < 0 {
 				continue
 			}
 			if vt, _, _ := w.at(k, th); g(vt) >= 0 {
@@ -103,11 +103,10 @@ func settle(w wave, center, band float64) float64 {
 		if w.at == nil {
 			continue
 		}
-		c := w.hermite(k)
-		crit := c.critical()
-		for i := len(crit) - 1; i >= 0; i-- {
-			th := crit[i]
-			if !out(c.at(th)) {
+		tr := w.turns[k]
+		for i := tr.n - 1; i >= 0; i-- {
+			th := tr.at[i]
+			if !out(tr.v[i]) {
 				continue
 			}
 			if vt, _, _ := w.at(k, th); out(vt) {
@@ -147,9 +146,9 @@ func extreme(w wave, dir float64) (t, v float64) {
 		if k == best-1 || k == best {
 			top = math.Inf(1)
 		} else {
-			c := w.hermite(k)
-			for _, th := range c.critical() {
-				top = max(top, dir*c.at(th))
+			tr := w.turns[k]
+			for _, cv := range tr.v[:tr.n] {
+				top = max(top, dir*cv)
 			}
 			if top <= dir*v {
 				continue
@@ -173,10 +172,10 @@ func extreme(w wave, dir float64) (t, v float64) {
 // the exact slopes at the ends and at the critical points of the cubic
 // show one.
 func (w wave) peakIn(k int, dir float64) (t, v float64, ok bool) {
-	crit := w.hermite(k).critical()
+	tr := w.turns[k]
 	th := []float64{0}
 	s := []float64{w.sR[k]}
-	for _, c := range crit {
+	for _, c := range tr.at[:tr.n] {
 		_, sc, _ := w.at(k, c)
 		th, s = append(th, c), append(s, sc)
 	}
@@ -215,9 +214,9 @@ func absArea(w wave) float64 {
 		case f0*f1 < 0:
 			cuts = []float64{w.crossing(k, 0, 0, f0, 1, f1)}
 		case f0*f1 > 0:
-			c := w.hermite(k)
-			for _, th := range c.critical() {
-				if c.at(th)*f0 >= 0 {
+			tr := w.turns[k]
+			for i, th := range tr.at[:tr.n] {
+				if tr.v[i]*f0 >= 0 {
 					continue
 				}
 				if vt, _, _ := w.at(k, th); vt*f0 < 0 {

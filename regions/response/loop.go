@@ -102,22 +102,45 @@ func trimmed(p poly.Poly) poly.Poly { return p[:p.Degree()+1] }
 //
 // illPosed is set when the leading coefficients of Dc·D and Nc·N cancel
 // exactly, 1 + C·G = 0 at infinity: a root of Δ has gone to infinity.
+// roundedLead is set when they cancel to within a bound on the rounding
+// of the sum, so that the degree of Δ is noise.
 type closedLoop struct {
 	delta                       poly.Poly
 	setpointY, setpointU, loadY poly.Poly
-	illPosed                    bool
+	illPosed, roundedLead       bool
 }
 
 func newClosedLoop(l Loop) closedLoop {
 	n, d, nc, dc := trimmed(l.PlantNum), trimmed(l.PlantDen), trimmed(l.CtrlNum), trimmed(l.CtrlDen)
 	delta := family.Characteristic(n, d, nc, dc)
-	return closedLoop{
+	c := closedLoop{
 		delta:     trimmed(delta),
 		setpointY: poly.Mul(nc, n),
 		setpointU: poly.Mul(nc, d),
 		loadY:     poly.Mul(n, dc),
 		illPosed:  delta.Degree() < len(delta)-1,
 	}
+	if !c.illPosed && len(delta) > 0 {
+		// The sum of the magnitudes of the products that form the leading
+		// coefficient bounds its rounding: each product and the sum add
+		// at most one unit of rounding per term.
+		abs := family.Characteristic(absPoly(n), absPoly(d), absPoly(nc), absPoly(dc))
+		k := len(delta) - 1
+		c.roundedLead = math.Abs(delta[k]) <= 4*float64(len(delta))*epsilon*abs[k]
+	}
+	return c
+}
+
+// epsilon is the unit of rounding of float64.
+const epsilon = 0x1p-52
+
+// absPoly returns p with every coefficient replaced by its magnitude.
+func absPoly(p poly.Poly) poly.Poly {
+	a := make(poly.Poly, len(p))
+	for i, v := range p {
+		a[i] = math.Abs(v)
+	}
+	return a
 }
 
 // finals returns the final values of the setpoint and load responses of

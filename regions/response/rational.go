@@ -136,5 +136,5 @@ func (s *shared) wave(o output, sp Span, state func(int, float64) []float64) wav
 		x := state(k, theta)
 		return o.d + dot(o.c, x), dot(o.ca, x) + o.cb, o.f*(float64(k)+theta)*sp.Step + dot(o.w, x)
 	}
-	return w
+	return w.shaped()
 }

@@ -9,18 +9,28 @@ import (
 	"gainscape/regions/routh"
 )
 
-// illPosedError is the error for a loop where 1 + C·G vanishes at
-// infinity.
-func illPosedError(l Loop) error {
-	return fmt.Errorf("response: %w: the loop is ill-posed (1 + C·G vanishes at infinity, so a closed-loop root has gone to infinity), in %v", ErrUnstable, l)
+// wellPosed returns an error for a loop where 1 + C·G vanishes at
+// infinity, or may vanish within rounding.
+func wellPosed(c closedLoop, l Loop) error {
+	switch {
+	case c.illPosed:
+		return fmt.Errorf("response: %w: the loop is ill-posed (1 + C·G vanishes at infinity, so a closed-loop root has gone to infinity), in %v", ErrUnstable, l)
+	case c.roundedLead:
+		return fmt.Errorf("response: %w: the leading coefficient of the characteristic polynomial is within rounding of zero "+
+			"(1 + C·G nearly vanishes at infinity), in %v", ErrUndecided, l)
+	}
+	return nil
 }
 
-// requireStable returns nil when the Routh sign array (routh.Analyze)
-// puts every root of p in the open left half plane with no drop of
-// degree, and otherwise an error wrapping ErrUnstable or ErrUndecided
+// requireStable returns nil when the Routh sign array (routh.Hurwitz,
+// the project's one stability predicate) puts every root of p in the
+// open left half plane with no drop of degree, and otherwise an error wrapping ErrUnstable or ErrUndecided
 // that names the loop. what names the polynomial in the message; drop
 // says what a drop of its degree means.
 func requireStable(p poly.Poly, what, drop string, l Loop) error {
+	if routh.Hurwitz(p, make([]float64, routh.WorkLen(len(p)-1))) {
+		return nil
+	}
 	rep := routh.Analyze(p)
 	switch {
 	case rep.Undecided:

@@ -61,8 +61,8 @@ func newPlan(l Loop, opt Options) (*plan, error) {
 		return planDelay(l, o)
 	}
 	p := &plan{opt: o, cl: newClosedLoop(l), sampled: l.Period > 0}
-	if p.cl.illPosed {
-		return nil, illPosedError(l)
+	if err := wellPosed(p.cl, l); err != nil {
+		return nil, err
 	}
 	what := "the characteristic polynomial " + name(p.cl.delta, "s")
 	if l.Period > 0 {

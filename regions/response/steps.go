@@ -80,6 +80,7 @@ type delayRun struct {
 	vdL    []float64 // v' just before t_k
 	wR, wL []float64 // w just after and before t_k
 	run    []float64 // ∫₀^{t_k} y
+	deriv  []float64 // scratch of derivative
 }
 
 const augExtra = 6 // ξ₀ … ξ₃, r, ∫y
@@ -102,17 +103,17 @@ func newDelayRun(s interconnect, m int, h, r, d float64, steps int) *delayRun {
 	dr := &delayRun{s: s, m: m, h: h, r: r, d: d, aug: aug, step: expm(aug, k, 1),
 		xs: make([]float64, (steps+1)*n), v: make([]float64, steps+1), vdR: make([]float64, steps+1),
 		vdL: make([]float64, steps+1), wR: make([]float64, steps+1), wL: make([]float64, steps+1),
-		run: make([]float64, steps+1)}
+		run: make([]float64, steps+1), deriv: make([]float64, n)}
 	dr.march(steps)
 	return dr
 }
 
 func (dr *delayRun) state(k int) []float64 { return dr.xs[k*dr.s.n : (k+1)*dr.s.n] }
 
-// derivative returns A·x + bw·w + br·r.
+// derivative returns A·x + bw·w + br·r, in storage it reuses.
 func (dr *delayRun) derivative(x []float64, w float64) []float64 {
 	n := dr.s.n
-	f := make([]float64, n)
+	f := dr.deriv
 	for i := 0; i < n; i++ {
 		f[i] = dot(dr.s.a[i*n:(i+1)*n], x) + dr.s.bw[i]*w + dr.s.br[i]*dr.r
 	}
@@ -194,7 +195,7 @@ func (dr *delayRun) outputWave() wave {
 		x, wt, q := dr.at(k, theta)
 		return dot(dr.s.cy, x), dot(dr.s.cy, dr.derivative(x, wt)), dr.run[k] + q
 	}
-	return w
+	return w.shaped()
 }
 
 // control returns u at the samples.

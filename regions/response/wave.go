@@ -19,6 +19,31 @@ type wave struct {
 	// at returns value, slope and running integral at t_k + θ·h,
 	// 0 ≤ θ ≤ 1, computed from the state at t_k by the matrix exponential.
 	at func(k int, theta float64) (v, s, run float64)
+	// turns[k] are the turning points of the Hermite cubic of step k,
+	// filled by shaped for continuous waves.
+	turns []turn
+}
+
+// turn holds the turning points θ in (0, 1) of the Hermite cubic of one
+// step, ascending, and the cubic's values there.
+type turn struct {
+	at, v [2]float64
+	n     int
+}
+
+// shaped returns w with its turns filled: the scans of figures look at
+// every step several times and need them each time.
+func (w wave) shaped() wave {
+	w.turns = make([]turn, w.steps())
+	for k := range w.turns {
+		c := w.hermite(k)
+		tr := &w.turns[k]
+		tr.at, tr.n = c.critical()
+		for i := 0; i < tr.n; i++ {
+			tr.v[i] = c.at(tr.at[i])
+		}
+	}
+	return w
 }
 
 // steps returns the number of steps of the window.
@@ -43,7 +68,7 @@ func (w wave) affine(alpha, beta float64) wave {
 		v, s, r := w.at(k, theta)
 		return alpha + beta*v, beta * s, alpha*(float64(k)+theta)*w.h + beta*r
 	}
-	return a
+	return a.shaped()
 }
 
 // cubic is the Hermite cubic through the values and slopes (per unit θ)
@@ -63,33 +88,35 @@ func (c cubic) at(t float64) float64 { return c.a0 + t*(c.a1+t*(c.a2+t*c.a3)) }
 func (c cubic) slope(t float64) float64 { return c.a1 + t*(2*c.a2+t*3*c.a3) }
 
 // critical returns the points in (0, 1) where the cubic's slope
-// vanishes, ascending.
-func (c cubic) critical() []float64 {
+// vanishes, ascending, in an array with their count, so that the scans
+// over every step allocate nothing.
+func (c cubic) critical() (pts [2]float64, n int) {
 	a, b, d := 3*c.a3, 2*c.a2, c.a1
-	var r []float64
+	var r [2]float64
+	m := 0
 	if a == 0 {
 		if b != 0 {
-			r = []float64{-d / b}
+			r[0], m = -d/b, 1
 		}
 	} else if disc := b*b - 4*a*d; disc >= 0 {
 		// The root of larger magnitude first, then the other from the
 		// product of the roots, which loses no digits to cancellation.
 		q := -(b + math.Copysign(math.Sqrt(disc), b)) / 2
-		r = []float64{q / a}
+		r[0], m = q/a, 1
 		if q != 0 {
-			r = append(r, d/q)
+			r[1], m = d/q, 2
 		}
-		if len(r) == 2 && r[0] > r[1] {
+		if m == 2 && r[0] > r[1] {
 			r[0], r[1] = r[1], r[0]
 		}
 	}
-	out := r[:0]
-	for _, t := range r {
+	for _, t := range r[:m] {
 		if t > 0 && t < 1 {
-			out = append(out, t)
+			pts[n] = t
+			n++
 		}
 	}
-	return out
+	return pts, n
 }
 
 // root returns a θ in [a, b] where the cubic equals level, by bisection,
