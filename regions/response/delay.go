@@ -52,14 +52,20 @@ func planDelay(l Loop, o Options) (*plan, error) {
 			ErrUndecided, maxPade, padeTolPoles, x, l)
 	}
 	p := &plan{opt: o, cl: newClosedLoop(l)}
-	var delta poly.Poly
-	for _, order := range []int{n + 1, n} {
-		delta = newClosedLoop(padeLoop(l, order)).delta
+	deltas, errs := make([]poly.Poly, 2), make([]error, 2)
+	for i, order := range []int{n, n + 1} {
+		deltas[i] = newClosedLoop(padeLoop(l, order)).delta
 		what := fmt.Sprintf("the characteristic polynomial with the (%d, %d) Padé approximant of the dead time", order, order)
-		if err := requireStable(delta, what, dropInfinity, l); err != nil {
-			return nil, err
-		}
+		errs[i] = requireStable(deltas[i], what, dropInfinity, l)
 	}
+	if (errs[0] == nil) != (errs[1] == nil) {
+		return nil, fmt.Errorf("response: %w: the Padé approximants of orders %d and %d of the dead time disagree on stability, in %v",
+			ErrUndecided, n, n+1, l)
+	}
+	if errs[0] != nil {
+		return nil, errs[0]
+	}
+	delta := deltas[0]
 	starts, err := delta.Roots()
 	if err != nil {
 		return nil, fmt.Errorf("response: %w in %v", err, l)

@@ -24,9 +24,30 @@ func Step(l Loop, opt Options) (*Result, error) {
 	return p.rational(l)
 }
 
-// Window returns the time window Step would use for l: the rule of
-// package-level function rule on the closed-loop poles (see Span and
-// the package documentation), with the adjustments for dead time.
+// Window returns the time window Step would use for l with opt. With
+// σmin the least decay rate of the closed-loop poles and the visible
+// oscillations those poles with ω > 0 that keep more than DecayTo of
+// their amplitude over one period (σ·2π/ω < ln(1/DecayTo)):
+//
+//	Duration = max(ln(1/DecayTo)/σmin, Periods·2π/ωslow)
+//	Samples  = clamp(⌈SamplesPerPeriod·Duration·ωfast/(2π)⌉, MinSamples, MaxSamples)
+//
+// ωslow and ωfast being the least and greatest visible ω: the slowest
+// mode decays to DecayTo (0.1%, about 6.9 time constants, by default),
+// the slowest visible oscillation shows Periods periods (3), and the
+// fastest gets SamplesPerPeriod samples per period (20). A loop without
+// poles gets one time unit. Options.Duration and Options.Samples override
+// either part.
+//
+// Sampled loops take the poles' modes z = e^((−σ + jω)T) and round the
+// duration up to whole periods T, at least deg Δ + 1 of them (a
+// dead-beat loop settles within deg Δ samples), at most MaxSamples.
+// Dead-time loops take the dominant roots of the quasi-polynomial (see
+// the package documentation), lengthen the duration by L, and shorten
+// the step so that a whole number of steps spans L: this raises the
+// count, to at most twice the rule's when L is longer than the rule's
+// step and to Duration/L otherwise, unless that exceeds MaxSamples,
+// when the response takes a Padé approximant of the delay instead.
 func Window(l Loop, opt Options) (Span, error) {
 	p, err := newPlan(l, opt)
 	if err != nil {

@@ -128,19 +128,7 @@ func modesSampled(poles []complex128, period float64) []mode {
 	return m
 }
 
-// rule is the window rule on modes. With σmin the least decay rate and
-// "visible" oscillations those modes with ω > 0 that keep more than
-// DecayTo of their amplitude over one period (σ·2π/ω < ln(1/DecayTo)):
-//
-//	Duration = max(ln(1/DecayTo)/σmin, Periods·2π/ωslow)
-//	Samples  = clamp(⌈SamplesPerPeriod·Duration·ωfast/(2π)⌉, MinSamples, MaxSamples)
-//
-// ωslow and ωfast being the least and greatest visible ω. The first term
-// lets the slowest mode decay to DecayTo (ln 1000 ≈ 6.9 time constants
-// by default); the second shows a few periods of the slowest oscillation;
-// the sample count resolves the fastest one. Options.Duration and
-// Options.Samples override either part. A loop with no modes gets a
-// window of one time unit.
+// rule is the window rule of Window on modes.
 func rule(modes []mode, o Options) Span {
 	lnD := math.Log(1 / o.DecayTo)
 	sp := Span{SlowestDecay: math.Inf(1)}
