@@ -74,7 +74,7 @@ func planDelay(l Loop, o Options) (*plan, error) {
 	if len(p.poles) == 0 || real(p.poles[0]) >= 0 {
 		return nil, fmt.Errorf("response: %w: the Padé approximant is stable but the refined roots of the quasi-polynomial are not, in %v", ErrUndecided, l)
 	}
-	span := rule(modesContinuous(p.poles), o)
+	span := rule(modesContinuous(p.poles), o, 1)
 	if o.Duration == 0 {
 		span.Duration += l.Delay
 	}

@@ -34,19 +34,25 @@ func TestFirstOrderPI(t *testing.T) {
 		name    string
 		kp, ki  float64
 		complex bool
+		// tPeakTol is the relative tolerance of the load peak time: a
+		// stationary point is located by the root of the slope, whose
+		// rounding error over the curvature sets it. With poles 1e12
+		// apart the slope is a sum of terms far larger than itself near
+		// the peak (measured: 1e-5 and 1e-6 of the peak time).
+		tPeakTol float64
 	}{
-		{"oscillating", 1, 1, true},
-		{"lightly damped", 0.2, 3, true},
-		{"overdamped", 4, 0.2, false},
+		{"oscillating", 1, 1, true, 1e-9},
+		{"lightly damped", 0.2, 3, true, 1e-9},
+		{"overdamped", 4, 0.2, false, 1e-9},
 		// Poles near −0.5 and −6.7e11, near −1/3 and −2e-12.
-		{"huge gains", 1e12, 5e11, false},
-		{"tiny gains", 1e-12, 1e-12, false},
+		{"huge gains", 1e12, 5e11, false, 1e-4},
+		{"tiny gains", 1e-12, 1e-12, false, 1e-4},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			l := Loop{PlantNum: p(K), PlantDen: p(tau, 1), CtrlNum: p(tc.kp, tc.ki), CtrlDen: p(1, 0)}
 			b1, b0 := (1+K*tc.kp)/tau, K*tc.ki/tau
 			var ys, yl func(float64) float64
-			var iaeInf float64
+			var iaeInf, tPeak float64
 			if tc.complex {
 				s := b1 / 2
 				w := math.Sqrt(b0 - s*s)
@@ -54,6 +60,8 @@ func TestFirstOrderPI(t *testing.T) {
 				ys = func(t float64) float64 { return 1 - math.Exp(-s*t)*(math.Cos(w*t)-B*math.Sin(w*t)) }
 				yl = func(t float64) float64 { return K / (tau * w) * math.Exp(-s*t) * math.Sin(w*t) }
 				iaeInf = 1 / tc.ki / math.Tanh(s*math.Pi/(2*w))
+				// The load peak: d/dt e^(−σt)·sin ωt = 0 at tan ωt = ω/σ.
+				tPeak = math.Atan2(w, s) / w
 
 				// First maximum of the setpoint response: y' ∝ sin(ωt + φ)
 				// with tan φ = (σ + Bω)/(ω − Bσ), so t_p = (π − φ)/ω.
@@ -72,6 +80,9 @@ func TestFirstOrderPI(t *testing.T) {
 				ys = func(t float64) float64 { return 1 + c1*math.Exp(p1*t) + c2*math.Exp(p2*t) }
 				yl = func(t float64) float64 { return K / tau * (math.Exp(p1*t) - math.Exp(p2*t)) / (p1 - p2) }
 				iaeInf = 1 / tc.ki
+				// The load peak: p₁e^(p₁t) = p₂e^(p₂t) at t = ln(p₂/p₁)/(p₁ − p₂),
+				// inside the first step for the huge gains.
+				tPeak = math.Log(p2/p1) / (p1 - p2)
 			}
 			r := mustStep(t, l, Options{})
 			compareTrace(t, "setpoint y", r.Time, r.Setpoint.Output, ys, 1e-10, 1)
@@ -79,6 +90,8 @@ func TestFirstOrderPI(t *testing.T) {
 			compareTrace(t, "load y", r.Time, r.Load.Output, yl, 1e-10, peak)
 			check(t, "final setpoint", r.Figures.FinalSetpoint, 1, 0, 1)
 			check(t, "final load", r.Figures.FinalLoad, 0, 0, 1)
+			check(t, "peak load", r.Figures.PeakLoad, yl(tPeak), 1e-12, yl(tPeak))
+			check(t, "peak time load", r.Figures.PeakTimeLoad, tPeak, tc.tPeakTol, tPeak)
 
 			// A window long enough for the slowest mode to fall to 1e-13
 			// leaves a tail below 1e-12 of the integrals.

@@ -104,7 +104,7 @@ func newPlan(l Loop, opt Options) (*plan, error) {
 	if p.poles, err = polesContinuous(p.cl.delta, l); err != nil {
 		return nil, err
 	}
-	p.span = rule(modesContinuous(p.poles), o)
+	p.span = rule(modesContinuous(p.poles), o, 1)
 	p.method = "matrix exponential of the closed loop in controllable canonical form"
 	return p, nil
 }

@@ -174,12 +174,15 @@ func (w wave) crossing(k int, level, a, fa, b, fb float64) float64 {
 // stationary returns θ in [a, b] where the slope of the exact signal of
 // step k vanishes, given slopes sa and sb of opposite signs at a and b:
 // the Illinois variant of regula falsi (Dowell & Jarratt, BIT 11, 1971),
-// started at guess. The value there is stationary, so the error of θ
-// enters it squared.
+// started at guess, with a bisection whenever two steps have not halved
+// the bracket, so that a root close to one end of a wide bracket costs
+// no more than bisection. The value there is stationary, so the error of
+// θ enters it squared.
 func (w wave) stationary(k int, a, sa, b, sb, guess float64) float64 {
 	x := guess
 	side := 0
-	for i := 0; i < 100 && b-a > thetaTol; i++ {
+	width := b - a
+	for i := 0; i < 200 && b-a > thetaTol; i++ {
 		_, s, _ := w.at(k, x)
 		if s == 0 {
 			return x
@@ -198,6 +201,12 @@ func (w wave) stationary(k int, a, sa, b, sb, guess float64) float64 {
 			side = 1
 		}
 		x = (a*sb - b*sa) / (sb - sa)
+		if i%2 == 1 {
+			if b-a > width/2 {
+				x = (a + b) / 2
+			}
+			width = b - a
+		}
 		if !(x > a && x < b) {
 			x = (a + b) / 2
 		}

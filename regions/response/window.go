@@ -128,8 +128,9 @@ func modesSampled(poles []complex128, period float64) []mode {
 	return m
 }
 
-// rule is the window rule of Window on modes.
-func rule(modes []mode, o Options) Span {
+// rule is the window rule of Window on modes; without modes the window
+// lasts empty time units.
+func rule(modes []mode, o Options, empty float64) Span {
 	lnD := math.Log(1 / o.DecayTo)
 	sp := Span{SlowestDecay: math.Inf(1)}
 	wFast := 0.0
@@ -150,7 +151,7 @@ func rule(modes []mode, o Options) Span {
 		d = max(d, o.Periods*2*math.Pi/sp.Oscillation)
 	}
 	if d == 0 {
-		d = 1
+		d = empty
 	}
 	if o.Duration > 0 {
 		d = o.Duration
@@ -172,7 +173,7 @@ func rule(modes []mode, o Options) Span {
 func ruleSampled(modes []mode, period float64, deg int, o Options) Span {
 	n := o.Samples
 	o.MinSamples, o.Samples = 1, 0
-	sp := rule(modes, o)
+	sp := rule(modes, o, 0)
 	if n == 0 {
 		// The quotient is rounded up, less a few rounding errors so that a
 		// Duration of exactly k periods gives k samples.

@@ -64,8 +64,8 @@ func TestWindowRule(t *testing.T) {
 			// Dead beat: G = 1/(z − 1), C = 1 gives Δ = z, the pole at 0;
 			// one sample settles it and the window keeps deg Δ + 1 = 2
 			// samples.
-			name: "sampled, dead beat", l: Loop{PlantNum: p(1), PlantDen: p(1, -1), CtrlNum: p(1), CtrlDen: p(1), Period: 0.5},
-			duration: 1, samples: 2,
+			name: "sampled, dead beat", l: Loop{PlantNum: p(1), PlantDen: p(1, -1), CtrlNum: p(1), CtrlDen: p(1), Period: 0.01},
+			duration: 0.02, samples: 2,
 		},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
