@@ -15,28 +15,19 @@ func fopdtLoop(ctrlNum, ctrlDen []float64) Loop {
 }
 
 // Under P control the method of steps can be done by hand (derived in
-// this test). With a = 1/τ and g = K·kp, y' = a(−y + K·w), w(t) = v(t − L):
+// this test). With a = 1/τ and g = K·kp, y' = a(−y + K·w), w(t) = v(t − L);
+// under the load step v = 1 − kp·y:
 //
-//	setpoint, v = kp(1 − y):
-//	  [0, L):   y = 0
-//	  [L, 2L):  y = g(1 − e^(−a(t−L)))
-//	  [2L, 3L): y' = −a·y + a·g(1 − g) + a·g²·e^(−a(t−2L)), so
-//	            y = g(1 − g) + (g(g − e^(−aL)) + a·g²·(t − 2L))·e^(−a(t−2L))
-//	load, v = 1 − kp·y:
-//	  [L, 2L):  y = K(1 − e^(−a(t−L)))
-//	  [2L, 3L): y = K(1 − g) + (K(g − e^(−aL)) + a·K·g·(t − 2L))·e^(−a(t−2L))
+//	[0, L):   y = 0
+//	[L, 2L):  y = K(1 − e^(−a(t−L)))
+//	[2L, 3L): w = 1 − g(1 − e^(−a(t−2L))), so
+//	          y' = −a·y + a·K(1 − g) + a·K·g·e^(−a(t−2L)) and
+//	          y = K(1 − g) + K(g − e^(−aL) + a·g·(t − 2L))·e^(−a(t−2L))
+//
+// and the setpoint response is kp times it (Y/R ÷ Y/D = C = kp).
 func TestDelayProportionalByHand(t *testing.T) {
 	const kp = 0.8
 	a, g, L, K := 1/fopdtTau, fopdtK*kp, fopdtL, fopdtK
-	ys := func(t float64) float64 {
-		switch {
-		case t < L:
-			return 0
-		case t < 2*L:
-			return g * -math.Expm1(-a*(t-L))
-		}
-		return g*(1-g) + (g*(g-math.Exp(-a*L))+a*g*g*(t-2*L))*math.Exp(-a*(t-2*L))
-	}
 	yl := func(t float64) float64 {
 		switch {
 		case t < L:
@@ -44,8 +35,9 @@ func TestDelayProportionalByHand(t *testing.T) {
 		case t < 2*L:
 			return K * -math.Expm1(-a*(t-L))
 		}
-		return K*(1-g) + (K*(g-math.Exp(-a*L))+a*K*g*(t-2*L))*math.Exp(-a*(t-2*L))
+		return K*(1-g) + K*(g-math.Exp(-a*L)+a*g*(t-2*L))*math.Exp(-a*(t-2*L))
 	}
+	ys := func(t float64) float64 { return kp * yl(t) }
 	r := mustStep(t, fopdtLoop([]float64{kp}, []float64{1}), Options{})
 	n := 0
 	for n < len(r.Time) && r.Time[n] <= 3*L*(1+1e-12) {

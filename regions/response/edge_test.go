@@ -200,6 +200,15 @@ func TestRefusedLoops(t *testing.T) {
 		{"zero denominator", Loop{PlantNum: p(1), PlantDen: p(0), CtrlNum: p(1), CtrlDen: p(1)}, nil},
 		{"not a number", Loop{PlantNum: p(math.NaN()), PlantDen: p(1, 1), CtrlNum: p(1), CtrlDen: p(1)}, nil},
 		{"negative dead time", Loop{PlantNum: p(1), PlantDen: p(1, 1), CtrlNum: p(1), CtrlDen: p(1), Delay: -1}, nil},
+		// Sampled: G(z) = 0.5/(z − 0.8) under kp has its pole at
+		// b = 0.8 − 0.5·kp.
+		{"sampled: b = −1.2 outside the unit circle", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(4), CtrlDen: p(1), Period: 0.1}, ErrUnstable},
+		{"sampled: b = −1 on the circle", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(3.6), CtrlDen: p(1), Period: 0.1}, ErrUnstable},
+		// A zero plant and an integrating controller leave a double pole
+		// at z = 1.
+		{"sampled: poles at z = 1", Loop{PlantNum: p(0), PlantDen: p(1, -1), CtrlNum: p(1), CtrlDen: p(1, -1), Period: 0.1}, ErrUnstable},
+		{"sampled: non-causal controller", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(1, 0.2), CtrlDen: p(1), Period: 0.1}, nil},
+		{"sampled: dead time given as Delay", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(1), CtrlDen: p(1), Period: 0.1, Delay: 0.2}, nil},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			_, err := Step(tc.l, Options{})

@@ -1,8 +1,9 @@
 package response
 
 import (
-	"encoding/json"
 	"math"
+	"reflect"
+	"strconv"
 )
 
 // Result is the closed-loop response of one design point to a unit
@@ -93,32 +94,22 @@ type Figures struct {
 }
 
 // MarshalJSON implements json.Marshaler, writing NaN and infinite
-// figures as null.
+// figures as null under the names of the json tags.
 func (f Figures) MarshalJSON() ([]byte, error) {
-	type plain struct {
-		FinalSetpoint    *float64 `json:"final_setpoint"`
-		Overshoot        *float64 `json:"overshoot"`
-		Undershoot       *float64 `json:"undershoot"`
-		PeakSetpoint     *float64 `json:"peak_setpoint"`
-		PeakTimeSetpoint *float64 `json:"peak_time_setpoint"`
-		RiseTime         *float64 `json:"rise_time"`
-		SettlingTime     *float64 `json:"settling_time"`
-		IAESetpoint      *float64 `json:"iae_setpoint"`
-		FinalLoad        *float64 `json:"final_load"`
-		IAELoad          *float64 `json:"iae_load"`
-		IELoad           *float64 `json:"ie_load"`
-		PeakLoad         *float64 `json:"peak_load"`
-		PeakTimeLoad     *float64 `json:"peak_time_load"`
-	}
-	n := func(x float64) *float64 {
-		if math.IsNaN(x) || math.IsInf(x, 0) {
-			return nil
+	v := reflect.ValueOf(f)
+	t := v.Type()
+	b := []byte{'{'}
+	for i := range t.NumField() {
+		if i > 0 {
+			b = append(b, ',')
 		}
-		return &x
+		b = strconv.AppendQuote(b, t.Field(i).Tag.Get("json"))
+		b = append(b, ':')
+		if x := v.Field(i).Float(); math.IsNaN(x) || math.IsInf(x, 0) {
+			b = append(b, "null"...)
+		} else {
+			b = strconv.AppendFloat(b, x, 'g', -1, 64)
+		}
 	}
-	return json.Marshal(plain{
-		n(f.FinalSetpoint), n(f.Overshoot), n(f.Undershoot), n(f.PeakSetpoint), n(f.PeakTimeSetpoint),
-		n(f.RiseTime), n(f.SettlingTime), n(f.IAESetpoint),
-		n(f.FinalLoad), n(f.IAELoad), n(f.IELoad), n(f.PeakLoad), n(f.PeakTimeLoad),
-	})
+	return append(b, '}'), nil
 }

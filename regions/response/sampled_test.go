@@ -1,7 +1,6 @@
 package response
 
 import (
-	"errors"
 	"math"
 	"testing"
 )
@@ -81,37 +80,5 @@ func TestSampledPIIntegratedError(t *testing.T) {
 	check(t, "final load", r.Figures.FinalLoad, 0, 0, 1)
 	if n := len(r.Time); math.Abs(r.Setpoint.Output[n-1]-1) > 1e-13 || math.Abs(r.Load.Output[n-1]) > 1e-13 {
 		t.Errorf("samples at the end of the window: setpoint %g, load %g; want 1 and 0", r.Setpoint.Output[n-1], r.Load.Output[n-1])
-	}
-}
-
-// Sampled loops that Step must refuse, invented.
-func TestSampledRefused(t *testing.T) {
-	for _, tc := range []struct {
-		name   string
-		l      Loop
-		target error
-	}{
-		// b = 0.8 − 0.5·4 = −1.2: outside the unit circle.
-		{"unstable", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(4), CtrlDen: p(1), Period: 0.1}, ErrUnstable},
-		// b = 0.8 − 0.5·3.6 = −1: on the circle at z = −1.
-		{"pole at z = -1", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(3.6), CtrlDen: p(1), Period: 0.1}, ErrUnstable},
-		// An integrating plant under an integrating controller with no
-		// proportional path: a double pole at z = 1 stays at kp = ki = 0.
-		{"poles at z = 1", Loop{PlantNum: p(0), PlantDen: p(1, -1), CtrlNum: p(1), CtrlDen: p(1, -1), Period: 0.1}, ErrUnstable},
-		{"non-causal controller", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(1, 0.2), CtrlDen: p(1), Period: 0.1}, nil},
-		{"dead time given as Delay", Loop{PlantNum: p(0.5), PlantDen: p(1, -0.8), CtrlNum: p(1), CtrlDen: p(1), Period: 0.1, Delay: 0.2}, nil},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			_, err := Step(tc.l, Options{})
-			if err == nil {
-				t.Fatalf("Step(%v) succeeded, want an error", tc.l)
-			}
-			if tc.target != nil && !errors.Is(err, tc.target) {
-				t.Errorf("Step(%v) = %v, want %v", tc.l, err, tc.target)
-			}
-			if testing.Verbose() {
-				t.Log(err)
-			}
-		})
 	}
 }
