@@ -3,14 +3,15 @@ package response
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 
 	"gainscape/regions/poly"
 )
 
-// Tolerances of the Padé approximants a dead-time loop uses: for its
-// poles and stability (the roots are then refined on the exact
-// quasi-polynomial), and for the whole response when the dead time is
-// shorter than one step of the window.
+// Tolerances of the Padé approximants a dead-time loop uses: for the
+// starting points of its roots (refined on the exact quasi-polynomial),
+// and for the whole response when the dead time is shorter than one step
+// of the window.
 const (
 	padeTolPoles    = 1e-6
 	padeTolResponse = 1e-10
@@ -21,15 +22,11 @@ const (
 
 // planDelay settles the window and method of a loop with dead time.
 //
-// Poles and stability: e^(−Ls) is replaced by its (n, n) Padé
-// approximant with n the least order whose error stays within 1e-6 up to
-// twice the bandwidth ω_b (the greatest ω with |C·G(jω)| ≥ 0.1); the
-// approximant's characteristic polynomial must pass the sign array at
-// orders n and n+1 alike (for a retarded loop the approximants' roots
-// converge to those of the quasi-polynomial in any bounded region;
-// recalled), and its roots are refined by Newton's method on the exact
-// quasi-polynomial Dc·D + Nc·N·e^(−Ls). The window rule then runs on the
-// refined roots and the window is lengthened by L.
+// Poles and stability (see delayPoles) come from a Padé approximant of
+// e^(−Ls) of order n, the least whose error stays within 1e-6 for ω·L up
+// to x = 2·L·max(ω_b, |poles and zeros of C·G|), ω_b the greatest ω with
+// |C·G(jω)| ≥ 0.1. The window rule then runs on the refined roots and
+// the window is lengthened by L.
 //
 // Response: the method of steps (see delayRun) with the step shortened
 // so that a whole number of steps spans L; when L is shorter than the
@@ -45,34 +42,16 @@ func planDelay(l Loop, o Options) (*plan, error) {
 	if math.IsInf(wb, 1) {
 		return nil, fmt.Errorf("response: %w: the loop gain |C·G| is still above %g at ω = 10⁶/L, in %v", ErrUndecided, gainFloor, l)
 	}
-	x := padeReach * wb * l.Delay
+	x := padeReach * l.Delay * max(wb, rootScale(poly.Mul(l.CtrlDen, l.PlantDen)), rootScale(poly.Mul(l.CtrlNum, l.PlantNum)))
 	n, ok := padeOrder(x, padeTolPoles)
 	if !ok {
 		return nil, fmt.Errorf("response: %w: no Padé approximant up to order %d holds the dead time to %g up to ω·L = %.3g, in %v",
 			ErrUndecided, maxPade, padeTolPoles, x, l)
 	}
 	p := &plan{opt: o, cl: newClosedLoop(l)}
-	deltas, errs := make([]poly.Poly, 2), make([]error, 2)
-	for i, order := range []int{n, n + 1} {
-		deltas[i] = newClosedLoop(padeLoop(l, order)).delta
-		what := fmt.Sprintf("the characteristic polynomial with the (%d, %d) Padé approximant of the dead time", order, order)
-		errs[i] = requireStable(deltas[i], what, dropInfinity, l)
-	}
-	if (errs[0] == nil) != (errs[1] == nil) {
-		return nil, fmt.Errorf("response: %w: the Padé approximants of orders %d and %d of the dead time disagree on stability, in %v",
-			ErrUndecided, n, n+1, l)
-	}
-	if errs[0] != nil {
-		return nil, errs[0]
-	}
-	delta := deltas[0]
-	starts, err := delta.Roots()
-	if err != nil {
-		return nil, fmt.Errorf("response: %w in %v", err, l)
-	}
-	p.poles = dominantRoots(poly.Mul(l.CtrlDen, l.PlantDen), p.cl.setpointY, l.Delay, starts)
-	if len(p.poles) == 0 || real(p.poles[0]) >= 0 {
-		return nil, fmt.Errorf("response: %w: the Padé approximant is stable but the refined roots of the quasi-polynomial are not, in %v", ErrUndecided, l)
+	var err error
+	if p.poles, err = delayPoles(l, n, x); err != nil {
+		return nil, err
 	}
 	span := rule(modesContinuous(p.poles), o, 1)
 	if o.Duration == 0 {
@@ -112,4 +91,63 @@ func (p *plan) padeResponse(l Loop, span Span, x float64) (*plan, error) {
 	p.method = fmt.Sprintf("matrix exponential of the closed loop in controllable canonical form with the (%d, %d) Padé approximant "+
 		"of a dead time shorter than one step", n, n)
 	return p, nil
+}
+
+// rootScale returns the largest magnitude of the roots of p, 0 if it
+// has none or they cannot be found.
+func rootScale(p poly.Poly) float64 {
+	r, err := trimmed(p).Roots()
+	if err != nil {
+		return 0
+	}
+	m := 0.0
+	for _, z := range r {
+		m = max(m, cmplx.Abs(z))
+	}
+	return m
+}
+
+// delayPoles returns the roots of Δ(s) = Dc·D + Nc·N·e^(−Ls) that
+// matter, slowest first, or an error when the loop is not stable or that
+// cannot be told. The roots of the characteristic polynomial with the
+// (n, n) Padé approximant (gonum eigenvalues) with |s|·L ≤ x are
+// refined by Newton's method on Δ itself (dominantRoots). A refined root
+// with Re s > 0 is an exact certificate of instability. For a retarded
+// loop the roots in the right half plane satisfy |C·G(s)| = |e^(sL)| ≥ 1,
+// so they lie where the approximant holds; its roots outside that range
+// lie near the zeros of the Padé denominator, in the left half plane
+// (recalled). An approximant root in the right half plane that does not
+// refine, or lies outside the range, leaves stability undecided, and so
+// does a refined root within 1e-9 of its size of the imaginary axis.
+func delayPoles(l Loop, n int, x float64) ([]complex128, error) {
+	starts, err := newClosedLoop(padeLoop(l, n)).delta.Roots()
+	if err != nil {
+		return nil, fmt.Errorf("response: %w in %v", err, l)
+	}
+	var near []complex128
+	for _, s := range starts {
+		if cmplx.Abs(s)*l.Delay <= x {
+			near = append(near, s)
+		} else if real(s) >= 0 {
+			return nil, fmt.Errorf("response: %w: the (%d, %d) Padé approximant puts a root at %v, outside the range where it holds, in %v",
+				ErrUndecided, n, n, s, l)
+		}
+	}
+	roots, failed := dominantRoots(poly.Mul(l.CtrlDen, l.PlantDen), poly.Mul(l.CtrlNum, l.PlantNum), l.Delay, near)
+	for _, s := range failed {
+		if real(s) >= 0 {
+			return nil, fmt.Errorf("response: %w: Newton's method from the approximant's root %v does not converge, in %v", ErrUndecided, s, l)
+		}
+	}
+	if len(roots) == 0 {
+		return nil, fmt.Errorf("response: %w: no root of the quasi-polynomial found near the approximant's, in %v", ErrUndecided, l)
+	}
+	top := roots[0]
+	switch {
+	case real(top) > 1e-9*cmplx.Abs(top):
+		return nil, fmt.Errorf("response: %w: the quasi-polynomial of the dead-time loop has a root at %v, in %v", ErrUnstable, top, l)
+	case real(top) >= -1e-9*cmplx.Abs(top):
+		return nil, fmt.Errorf("response: %w: the quasi-polynomial has a root at %v, on the imaginary axis within rounding, in %v", ErrUndecided, top, l)
+	}
+	return roots, nil
 }

@@ -97,14 +97,14 @@ func TestDelayConvergence(t *testing.T) {
 		r, d float64
 		got  []float64
 	}{{"setpoint", 1, 0, fine.Setpoint.Output}, {"load", 0, 1, fine.Load.Output}} {
-		ref := rk4Delay(step.r, step.d, kp, ki, perDelay, int(D/fopdtL))
+		ref := rk4Delay(fopdtK, fopdtTau, fopdtL, step.r, step.d, kp, ki, perDelay, int(D/fopdtL))
 		compareTrace(t, step.name+" y vs Runge–Kutta", fine.Time, step.got, func(tt float64) float64 {
 			return ref[int(math.Round(tt/fopdtL*perDelay))]
 		}, 1e-10, 1)
 	}
 }
 
-// rk4Delay integrates the PI loop on the plant of fopdtLoop,
+// rk4Delay integrates the PI loop on the plant K·e^(−Ls)/(τs + 1),
 //
 //	y' = (−y + K·w)/τ,  z' = e = r − y,  v = kp·e + ki·z + d,  w(t) = v(t − L),
 //
@@ -113,9 +113,9 @@ func TestDelayConvergence(t *testing.T) {
 // comes from the Hermite cubic of v over the step one delay earlier,
 // with the one-sided slopes v' = −kp·y' + ki·e at its ends (w jumps at
 // t = L, so y' does).
-func rk4Delay(r, d, kp, ki float64, m, delays int) []float64 {
+func rk4Delay(K, tau, L, r, d, kp, ki float64, m, delays int) []float64 {
 	n := m * delays
-	h := fopdtL / float64(m)
+	h := L / float64(m)
 	y, z := make([]float64, n+1), make([]float64, n+1)
 	v := func(i int) float64 { return kp*(r-y[i]) + ki*z[i] + d }
 	// slopes of v just after (R) and before (L) sample i.
@@ -129,7 +129,7 @@ func rk4Delay(r, d, kp, ki float64, m, delays int) []float64 {
 		m0, m1 := h*vR[j], h*vL[j+1]
 		return p0 + c*(m0+c*((3*(p1-p0)-2*m0-m1)+c*(2*(p0-p1)+m0+m1)))
 	}
-	f := func(yy, zz, w float64) (float64, float64) { return (-yy + fopdtK*w) / fopdtTau, r - yy }
+	f := func(yy, zz, w float64) (float64, float64) { return (-yy + K*w) / tau, r - yy }
 	for i := 0; i <= n; i++ {
 		wr, wl := input(i, 0), 0.0
 		if i > 0 {
@@ -161,5 +161,45 @@ func TestDelayIntegratedError(t *testing.T) {
 	check(t, "final setpoint", r.Figures.FinalSetpoint, 1, 0, 1)
 	if r.Figures.IAELoad < -r.Figures.IELoad {
 		t.Errorf("IAE %g < |IE| %g", r.Figures.IAELoad, -r.Figures.IELoad)
+	}
+}
+
+// Dead-time loops unlike the one of fopdtLoop, against rk4Delay with 1024
+// steps per delay. Invented: an open-loop unstable plant 1/(s − 1)
+// (K = −1, τ = −1 in rk4Delay's form) with L = 0.2 under PI; a loop
+// whose gain never reaches the bandwidth floor of 0.1, so that its
+// dominant root comes from the plant pole.
+func TestDelayAgainstRungeKutta(t *testing.T) {
+	for _, tc := range []struct {
+		name           string
+		K, tau, L      float64
+		kp, ki         float64
+		delays, perRef int
+	}{
+		{"open-loop unstable plant", -1, -1, 0.2, 2, 0.5, 150, 1024},
+		{"low loop gain", 0.05, 1, 0.5, 1, 0, 20, 1024},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			l := Loop{PlantNum: p(tc.K), PlantDen: p(tc.tau, 1), CtrlNum: p(tc.kp, tc.ki), CtrlDen: p(1, 0), Delay: tc.L}
+			if tc.ki == 0 {
+				l.CtrlNum, l.CtrlDen = p(tc.kp), p(1)
+			}
+			D := float64(tc.delays) * tc.L
+			r := mustStep(t, l, Options{Duration: D, Samples: tc.delays * 64})
+			for _, step := range []struct {
+				name string
+				r, d float64
+				got  []float64
+			}{{"setpoint", 1, 0, r.Setpoint.Output}, {"load", 0, 1, r.Load.Output}} {
+				ref := rk4Delay(tc.K, tc.tau, tc.L, step.r, step.d, tc.kp, tc.ki, tc.perRef, tc.delays)
+				scale := 0.0
+				for _, v := range ref {
+					scale = math.Max(scale, math.Abs(v))
+				}
+				compareTrace(t, step.name+" y", r.Time, step.got, func(tt float64) float64 {
+					return ref[int(math.Round(tt/tc.L*float64(tc.perRef)))]
+				}, 1e-9, scale)
+			}
+		})
 	}
 }

@@ -82,13 +82,19 @@
 //
 // Stability and the window of a dead-time loop come from a Padé
 // approximant of e^(−Ls), of the least order whose error stays within
-// 1e-6 up to twice the frequency where |C·G(jω)| falls below 0.1: its
-// characteristic polynomial must pass the sign array at that order and
-// the next, and its roots are refined by Newton's method on the exact
-// quasi-polynomial Dc·D + Nc·N·e^(−Ls) (Result.Poles). This relies on the
-// convergence of Padé approximants' roots to the dominant roots of a
-// retarded loop (recalled), and is not a proof of stability. A dead time
-// shorter than one step of the window is taken by its Padé approximant
-// (order for an error within 1e-10) throughout, and Result.Method says
+// 1e-6 for ω·L up to twice the larger of the frequency where |C·G(jω)|
+// falls below 0.1 and the largest pole or zero of C·G: the roots of its
+// characteristic polynomial (gonum eigenvalues) are starting points for
+// Newton's method on the exact quasi-polynomial Dc·D + Nc·N·e^(−Ls),
+// and the refined roots are Result.Poles. A refined root in the right
+// half plane proves instability; stability rests on the roots of a
+// retarded loop in the right half plane lying where |C·G(s)| ≥ 1, inside
+// the range of the approximant, and on its roots beyond that range lying
+// in the left half plane (recalled): it is not a proof. The chain of
+// roots a dead time adds at high frequency counts in the window rule as
+// far as the approximant reaches, so lightly damped dead-time loops often
+// get many samples. A dead time shorter than one step of the window is
+// taken by its Padé approximant (order for an error within 1e-10)
+// throughout, with the sign array for stability, and Result.Method says
 // so.
 package response

@@ -115,13 +115,14 @@ func bandwidth(l Loop) float64 {
 
 // dominantRoots returns the roots of Δ(s) = P(s) + Q(s)·e^(−Ls) near
 // the given starting points (roots of a Padé approximant), each refined
-// by Newton's method on Δ itself, Δ' = P' + (Q' − L·Q)·e^(−Ls); a start
-// that does not converge within 50 steps is dropped. Roots that
-// coincide to 1e-9 of their size are kept once. Slowest first.
-func dominantRoots(p, q poly.Poly, delay float64, starts []complex128) []complex128 {
+// by Newton's method on Δ itself, Δ' = P' + (Q' − L·Q)·e^(−Ls), slowest
+// first; roots that coincide to 1e-9 of their size are kept once. The
+// starts that do not converge within 50 steps are returned apart.
+func dominantRoots(p, q poly.Poly, delay float64, starts []complex128) (roots, failed []complex128) {
 	dp, dq := p.Derivative(), q.Derivative()
 	var out []complex128
-	for _, s := range starts {
+	for _, start := range starts {
+		s := start
 		ok := false
 		for i := 0; i < 50 && !ok; i++ {
 			e := cmplx.Exp(complex(-delay, 0) * s)
@@ -135,6 +136,7 @@ func dominantRoots(p, q poly.Poly, delay float64, starts []complex128) []complex
 			ok = cmplx.Abs(step) <= 1e-13*(cmplx.Abs(s)+1/delay)
 		}
 		if !ok || cmplx.IsNaN(s) {
+			failed = append(failed, start)
 			continue
 		}
 		if !slices.ContainsFunc(out, func(r complex128) bool { return cmplx.Abs(r-s) <= 1e-9*(cmplx.Abs(s)+1/delay) }) {
@@ -147,5 +149,5 @@ func dominantRoots(p, q poly.Poly, delay float64, starts []complex128) []complex
 		}
 		return cmp.Compare(imag(b), imag(a))
 	})
-	return out
+	return out, failed
 }
