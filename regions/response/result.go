@@ -19,8 +19,9 @@ type Result struct {
 	Figures  Figures `json:"figures"`
 	Span     Span    `json:"span"`
 	// Poles are the closed-loop poles the window was chosen from, slowest
-	// first: the roots of Δ for rational loops; for dead-time loops the
-	// dominant roots of the quasi-polynomial (see Step).
+	// first: the roots of Δ for rational loops (in z for sampled ones);
+	// for dead-time loops the roots of the quasi-polynomial found from
+	// its Padé approximant (see the package documentation).
 	Poles []complex128 `json:"-"`
 	// Method says how the responses were computed, in a sentence.
 	Method string `json:"method"`

@@ -1,8 +1,10 @@
 package response
 
 import (
+	"cmp"
 	"fmt"
 	"math/cmplx"
+	"slices"
 
 	"gainscape/regions/margins"
 	"gainscape/regions/poly"
@@ -88,12 +90,14 @@ func polesContinuous(delta poly.Poly, l Loop) ([]complex128, error) {
 	return p, nil
 }
 
-// polesSampled is polesContinuous for the unit circle.
+// polesSampled is polesContinuous for the unit circle, slowest (largest
+// modulus) first.
 func polesSampled(delta poly.Poly, l Loop) ([]complex128, error) {
 	p, err := delta.Roots()
 	if err != nil {
 		return nil, fmt.Errorf("response: %w in %v", err, l)
 	}
+	slices.SortStableFunc(p, func(a, b complex128) int { return cmp.Compare(cmplx.Abs(b), cmplx.Abs(a)) })
 	for _, z := range p {
 		if cmplx.Abs(z) >= 1 {
 			return nil, fmt.Errorf("response: %w: the bilinear sign array finds the loop stable but the eigenvalue %v is not inside the unit circle, in %v",
