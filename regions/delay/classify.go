@@ -9,20 +9,64 @@ import (
 	"gainscape/regions/stability"
 )
 
-// Classify says how the roots of f cross the imaginary axis, f lying on an
-// edge of a stability map to within rounding; see Test.Classify.
-func (c *Counter) Classify(f stability.Function) stability.Crossing {
-	if f.Rational() {
-		p := poly.Poly(f.P)
-		if f.Delay == 0 && len(f.Q) > 0 {
-			p = poly.Add(f.P, f.Q)
+// Classify says which roots cross the imaginary axis between a and b, the
+// two ends of a bisection across an edge (or one point on it); see
+// Test.Classify. A real root crosses through s = 0 exactly when
+// Δ(0) = P(0) + Q(0) changes sign, and the neutral edge is where
+// |p_n| − |q_n| does; both signs are exact for coefficients formed
+// exactly. Otherwise the point halfway is classified by the cuts of the
+// count: the frequency where Δ(jω) comes nearest zero.
+func (c *Counter) Classify(a, b stability.Function) stability.Crossing {
+	if a.Rational() && b.Rational() {
+		return routh.Test{}.Classify(withoutDelay(a), withoutDelay(b))
+	}
+	changes := func(u, v float64) bool { return u*v < 0 || (u == 0) != (v == 0) }
+	if changes(coef(a.P, 0)+coef(a.Q, 0), coef(b.P, 0)+coef(b.Q, 0)) {
+		return stability.Crossing{Kind: stability.Real, Omega: 0}
+	}
+	if neutral := func(f stability.Function) float64 {
+		P, Q := trimTop(f.P), trimTop(f.Q)
+		if len(P) != len(Q) || len(P) == 0 {
+			return 1
 		}
-		return fromSignArray(routh.ClassifyCrossing(p))
+		return math.Abs(P[len(P)-1]) - math.Abs(Q[len(Q)-1])
+	}; changes(neutral(a), neutral(b)) {
+		return stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
+	}
+	return c.classifyAt(midway(a, b))
+}
+
+// withoutDelay returns the polynomial of a function without dead time.
+func withoutDelay(f stability.Function) stability.Function {
+	if f.Delay == 0 && len(f.Q) > 0 {
+		return stability.Function{P: poly.Add(f.P, f.Q)}
+	}
+	return stability.Function{P: f.P}
+}
+
+// midway returns the function halfway between a and b (equal delays).
+func midway(a, b stability.Function) stability.Function {
+	half := func(p, q poly.Poly) poly.Poly {
+		out := make(poly.Poly, max(len(p), len(q)))
+		for k := range out {
+			out[k] = 0.5 * (coef(p, k) + coef(q, k))
+		}
+		return out
+	}
+	return stability.Function{P: half(a.P, b.P), Q: half(a.Q, b.Q), Delay: a.Delay}
+}
+
+// classifyAt classifies f, a function that lies on an edge to within
+// rounding.
+func (c *Counter) classifyAt(f stability.Function) stability.Crossing {
+	if f.Rational() {
+		return routh.Test{}.Classify(withoutDelay(f), withoutDelay(f))
 	}
 	c.res = result{}
 	c.prepare(f)
 	if len(trimTop(f.P)) == 0 {
-		return fromSignArray(routh.ClassifyCrossing(poly.Poly(f.Q)))
+		q := stability.Function{P: f.Q}
+		return routh.Test{}.Classify(q, q)
 	}
 	// Each candidate is measured relative to the size of its terms, so
 	// that the three are comparable: how nearly Δ(0) vanishes, how nearly
@@ -52,17 +96,6 @@ func (c *Counter) Classify(f stability.Function) stability.Crossing {
 		}
 	}
 	return best
-}
-
-// fromSignArray turns the sign array's classification into a Crossing.
-func fromSignArray(x routh.Crossing) stability.Crossing {
-	switch x.Vanishing {
-	case "constant":
-		return stability.Crossing{Kind: stability.Real, Omega: 0}
-	case "leading":
-		return stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
-	}
-	return stability.Crossing{Kind: stability.Complex, Omega: x.Omega}
 }
 
 // newtonSteps caps Newton's method on Δ.

@@ -44,7 +44,7 @@ func TestClassifyOnRandomEdges(t *testing.T) {
 				}
 			}
 			g := scaledQ(f, 0.5*(lo+hi))
-			x := test.Classify(g)
+			x := test.Classify(g, g)
 			switch d := n - prev; {
 			case d == 1 || d == -1:
 				if x.Kind != stability.Real {

@@ -52,8 +52,8 @@ func (Test) NewCounter(n int) stability.Counter { return NewCounter(n) }
 // Infinite on the neutral boundary |q_n/p_n| = 1. The candidate that comes
 // closest to vanishing, relative to the size of its terms, names the
 // crossing; ω is refined by Newton's method on Δ itself.
-func (Test) Classify(f stability.Function) stability.Crossing {
-	return NewCounter(max(len(f.P), len(f.Q))).Classify(f)
+func (Test) Classify(a, b stability.Function) stability.Crossing {
+	return NewCounter(max(len(a.P), len(a.Q), len(b.P), len(b.Q))).Classify(a, b)
 }
 
 // Report is the full verdict for f, with the dominant part on each band of

@@ -33,7 +33,7 @@ func ExampleCounter_Count() {
 // ω = α1 ≈ 2.0288 rad/s, tan α1 = −α1.
 func ExampleTest_Classify() {
 	f := stability.Function{P: poly.Poly{1, 1}, Q: poly.Poly{2.2618262}, Delay: 1}
-	x := delay.Test{}.Classify(f)
+	x := delay.Test{}.Classify(f, f)
 	fmt.Printf("%v at ω = %.4f\n", x.Kind, x.Omega)
 	// Output:
 	// complex at ω = 2.0288

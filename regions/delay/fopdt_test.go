@@ -79,10 +79,12 @@ func TestFirstOrderDeadTimeGainRange(t *testing.T) {
 					t.Errorf("%s: kp = %.17g: verdict %+v, want %d unstable", tc.name, tc.kp, v, tc.want)
 				}
 			}
-			if x := test.Classify(fopdtP(pl.k, pl.T, pl.L, lower)); x.Kind != stability.Real {
+			if f := fopdtP(pl.k, pl.T, pl.L, lower); test.Classify(f, f).Kind != stability.Real {
+				x := test.Classify(f, f)
 				t.Errorf("at kp = −1/k: crossing %+v, want real", x)
 			}
-			x := test.Classify(fopdtP(pl.k, pl.T, pl.L, upper))
+			fu := fopdtP(pl.k, pl.T, pl.L, upper)
+			x := test.Classify(fu, fu)
 			// ω is a root of Δ(jω) refined to a few units in the last
 			// place; the edge itself carries the rounding of α1.
 			if x.Kind != stability.Complex || math.Abs(x.Omega-a/pl.L) > 1e-9*a/pl.L {

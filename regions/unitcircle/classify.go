@@ -4,6 +4,7 @@ import (
 	"math"
 	"math/cmplx"
 
+	"gainscape/regions/poly"
 	"gainscape/regions/stability"
 )
 
@@ -13,8 +14,47 @@ import (
 // and outside.
 const farLimit = 1e-6
 
-// Classify implements stability.Test for a polynomial that lies on an edge
-// of a stability map to within rounding. It finds the roots of P (gonum
+// Classify implements stability.Test by what changes between a and b, the
+// two ends of a bisection across an edge: a real root passes through
+// z = 1 exactly when P(1) changes sign (Real, ω = 0), through z = −1
+// exactly when P(−1) does (Alternating, ω = π/T), and to infinity when
+// the leading coefficient does; these signs are exact for coefficients
+// formed exactly, so rounding cannot make them up. Otherwise, and when a
+// and b are one point on the edge, the point halfway is classified by its
+// roots (classifyAt).
+func (t Test) Classify(a, b stability.Function) stability.Crossing {
+	checkFunction(a)
+	checkFunction(b)
+	t.check()
+	at := func(c poly.Poly, k int) float64 {
+		if k < len(c) {
+			return c[k]
+		}
+		return 0
+	}
+	n := max(len(a.P), len(b.P))
+	mid := make(poly.Poly, n)
+	for k := range mid {
+		mid[k] = 0.5 * (at(a.P, k) + at(b.P, k))
+	}
+	changes := func(u, v float64) bool { return u*v < 0 || (u == 0) != (v == 0) }
+	top := n - 1
+	for top > 0 && at(a.P, top) == 0 && at(b.P, top) == 0 {
+		top--
+	}
+	switch {
+	case changes(a.P.EvalReal(1), b.P.EvalReal(1)):
+		return stability.Crossing{Kind: stability.Real, Omega: 0}
+	case changes(a.P.EvalReal(-1), b.P.EvalReal(-1)):
+		return stability.Crossing{Kind: stability.Alternating, Omega: math.Pi / t.T}
+	case top > 0 && changes(at(a.P, top), at(b.P, top)):
+		return stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
+	}
+	return t.classifyAt(stability.Function{P: mid})
+}
+
+// classifyAt classifies a polynomial that lies on an edge of a stability
+// map to within rounding. It finds the roots of P (gonum
 // eigenvalues of the companion matrix, the nearest one polished by
 // Newton's method on P) and names the crossing after the root nearest the
 // circle, the distance of a root z being |ln|z||:
@@ -28,9 +68,7 @@ const farLimit = 1e-6
 // every distance to the circle): then the kind is Infinite (ω = NaN), a
 // loop without causal solution (see the package comment). A constant
 // polynomial has no crossing (None).
-func (t Test) Classify(f stability.Function) stability.Crossing {
-	checkFunction(f)
-	t.check()
+func (t Test) classifyAt(f stability.Function) stability.Crossing {
 	none := stability.Crossing{Kind: stability.None, Omega: math.NaN()}
 	infinite := stability.Crossing{Kind: stability.Infinite, Omega: math.NaN()}
 	p := f.P.Trim(0)

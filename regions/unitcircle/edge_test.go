@@ -93,7 +93,7 @@ func TestAlgebraicLoop(t *testing.T) {
 			t.Errorf("K = %g: %+v, want one root outside", k, v)
 		}
 	}
-	if k := test.Classify(stability.Function{P: at(-1 + 1e-13)}); k.Kind != stability.Infinite {
+	if k := test.Classify(stability.Function{P: at(-1 + 1e-13)}, stability.Function{P: at(-1 + 1e-13)}); k.Kind != stability.Infinite {
 		t.Errorf("K = −1 + 1e-13: crossing %+v, want infinite", k)
 	}
 }
@@ -116,10 +116,10 @@ func TestOpenLoopUnstable(t *testing.T) {
 		if math.Abs(lo-1) > 1e-12 || math.Abs(up-hi) > 1e-12*hi {
 			t.Errorf("T = %g: range (%.15g, %.15g), want (1, %.15g)", T, lo, up, hi)
 		}
-		if k := test.Classify(fl); k.Kind != stability.Real {
+		if k := test.Classify(fl, fl); k.Kind != stability.Real {
 			t.Errorf("T = %g: lower edge %+v", T, k)
 		}
-		if k := test.Classify(fu); k.Kind != stability.Alternating {
+		if k := test.Classify(fu, fu); k.Kind != stability.Alternating {
 			t.Errorf("T = %g: upper edge %+v", T, k)
 		}
 	}
@@ -143,7 +143,7 @@ func TestFastAndSlowSampling(t *testing.T) {
 	if !(k > 7.99 && k < 8) {
 		t.Errorf("T = 1e-4: limit %.9g, want in (7.99, 8)", k)
 	}
-	if cr := test.Classify(f); cr.Kind != stability.Complex || math.Abs(cr.Omega-math.Sqrt(3)) > 1e-3 {
+	if cr := test.Classify(f, f); cr.Kind != stability.Complex || math.Abs(cr.Omega-math.Sqrt(3)) > 1e-3 {
 		t.Errorf("T = 1e-4: crossing %+v, want complex near √3", cr)
 	}
 
@@ -155,7 +155,7 @@ func TestFastAndSlowSampling(t *testing.T) {
 	if math.Abs(k-1) > 1e-9 {
 		t.Errorf("T = 50: limit %.12g, want 1", k)
 	}
-	if cr := slow.Classify(f); cr.Kind != stability.Alternating {
+	if cr := slow.Classify(f, f); cr.Kind != stability.Alternating {
 		t.Errorf("T = 50: crossing %+v, want alternating", cr)
 	}
 	for _, g := range []float64{1e-12, 0.3, 0.99, 1.01, 7, 1e12} {
@@ -197,15 +197,15 @@ func TestClassifyOnTheCircle(t *testing.T) {
 		{poly.Poly{-0.5, 1.5, -1.5, 1}, stability.Complex, math.Pi / 3 / T},
 	}
 	for _, tc := range tests {
-		k := test.Classify(stability.Function{P: tc.p})
+		k := test.Classify(stability.Function{P: tc.p}, stability.Function{P: tc.p})
 		if k.Kind != tc.kind || math.Abs(k.Omega-tc.omega) > 1e-12*(1+tc.omega) {
 			t.Errorf("%v: %+v, want %v at %g", tc.p, k, tc.kind, tc.omega)
 		}
 	}
-	if k := test.Classify(stability.Function{P: poly.Poly{2}}); k.Kind != stability.None {
+	if k := test.Classify(stability.Function{P: poly.Poly{2}}, stability.Function{P: poly.Poly{2}}); k.Kind != stability.None {
 		t.Errorf("constant: %+v", k)
 	}
-	if k := test.Classify(stability.Function{P: poly.Poly{0.5, 1, 0}}); k.Kind != stability.Infinite {
+	if k := test.Classify(stability.Function{P: poly.Poly{0.5, 1, 0}}, stability.Function{P: poly.Poly{0.5, 1, 0}}); k.Kind != stability.Infinite {
 		t.Errorf("exact degree drop: %+v", k)
 	}
 	// The angle of the pair is read from the root, polished: compare with

@@ -32,7 +32,7 @@ func Example() {
 		fmt.Printf("K = %g: %d outside, %v\n", k, v.Unstable, v.Class())
 	}
 	edge := family.Characteristic(num, den, poly.Poly{2.392211191177333}, poly.Poly{1})
-	c := test.Classify(stability.Function{P: edge})
+	c := test.Classify(stability.Function{P: edge}, stability.Function{P: edge})
 	fmt.Printf("edge: %v at ω = %.4f rad/s\n", c.Kind, c.Omega)
 	// Output:
 	// K = 2: 0 outside, stable

@@ -86,7 +86,7 @@ func TestProportionalGainLimitIntegratorLag(t *testing.T) {
 		if math.Abs(got-want) > 1e-9*want {
 			t.Errorf("T = %g: gain limit %.12g, closed form %.12g", T, got, want)
 		}
-		cr := test.Classify(f)
+		cr := test.Classify(f, f)
 		if cr.Kind != tc.kind {
 			t.Errorf("T = %g: crossing %v, want %v", T, cr.Kind, tc.kind)
 		}
@@ -104,7 +104,7 @@ func TestProportionalGainLimitIntegratorLag(t *testing.T) {
 		if v := c.Count(stability.Function{P: at(0)}); v.Boundary != 1 || v.Unstable != 0 {
 			t.Errorf("T = %g, K = 0: %+v, want one root on the circle", T, v)
 		}
-		if k := test.Classify(stability.Function{P: at(1e-12)}); k.Kind != stability.Real || k.Omega != 0 {
+		if k := test.Classify(stability.Function{P: at(1e-12)}, stability.Function{P: at(1e-12)}); k.Kind != stability.Real || k.Omega != 0 {
 			t.Errorf("T = %g, K = 1e-12: crossing %+v, want real", T, k)
 		}
 	}
@@ -131,10 +131,10 @@ func TestProportionalRangeFirstOrder(t *testing.T) {
 		if math.Abs(upper-hi) > tol*hi || math.Abs(lower+1) > tol {
 			t.Errorf("T = %g: range (%.15g, %.15g), want (−1, %.15g)", T, lower, upper, hi)
 		}
-		if k := test.Classify(fu); k.Kind != stability.Alternating || math.Abs(k.Omega-math.Pi/T) > 1e-12*math.Pi/T {
+		if k := test.Classify(fu, fu); k.Kind != stability.Alternating || math.Abs(k.Omega-math.Pi/T) > 1e-12*math.Pi/T {
 			t.Errorf("T = %g: upper edge %+v, want alternating at π/T", T, k)
 		}
-		if k := test.Classify(fl); k.Kind != stability.Real || k.Omega != 0 {
+		if k := test.Classify(fl, fl); k.Kind != stability.Real || k.Omega != 0 {
 			t.Errorf("T = %g: lower edge %+v, want real", T, k)
 		}
 	}
@@ -207,7 +207,7 @@ func TestDigitalPITriangle(t *testing.T) {
 					t.Errorf("%s, %v: on the edge %+v, want one root on the circle", s.name, m, v)
 				}
 			}
-			k := test.Classify(at(m[0], m[1]))
+			k := test.Classify(at(m[0], m[1]), at(m[0], m[1]))
 			want := s.omega(m[0], m[1])
 			if k.Kind != s.kind || math.Abs(k.Omega-want) > 1e-7*(1+want) {
 				t.Errorf("%s, %v: crossing %v at ω = %.9g, want %v at %.9g", s.name, m, k.Kind, k.Omega, s.kind, want)
