@@ -69,6 +69,8 @@ func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
 	fs.StringVar(&f.ctrl, "ctrl", d.Loop.Controller, "controller family")
 	fs.StringArrayVar(&f.set, "set", nil, "fixed parameter values (repeatable)")
 	fs.StringVar(&f.timeUnit, "time-unit", d.Loop.TimeUnit, "unit of time of s")
+	fs.Float64Var(&f.sample, "sample", 0, "sample time of a digital controller (0: continuous)")
+	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
 	fs.StringVar(&f.x, "x", axisText(d.Axes.X), "horizontal axis NAME=MIN:MAX")
 	fs.StringVar(&f.y, "y", axisText(d.Axes.Y), "vertical axis NAME=MIN:MAX")
 	fs.StringVar(&f.grid, "grid", fmt.Sprintf("%dx%d", d.Axes.Columns, d.Axes.Rows), "grid nodes NXxNY")

@@ -67,6 +67,8 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.ctrl, "ctrl", "pid", "controller family")
 	fs.StringArrayVar(&f.set, "set", nil, "parameter values (repeatable)")
 	fs.StringVar(&f.timeUnit, "time-unit", "s", "unit of time of s")
+	fs.Float64Var(&f.sample, "sample", 0, "sample time of a digital controller (0: continuous)")
+	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
 	fs.StringVar(&f.x, "x", "", "first parameter of the fragility plane")
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")

@@ -23,22 +23,22 @@ type Probe struct {
 	MinDamping     float64            `json:"min_damping"`
 	// GainMargin is the gain margin nearest 0 dB, as a factor; GainMargins
 	// lists every phase crossover with its margin.
-	GainMargin     Number             `json:"gain_margin"`
-	GainMargins    []GainMargin       `json:"gain_margins"`
-	GainMarginDB   Number             `json:"gain_margin_db"`
-	PhaseCrossover Number             `json:"phase_crossover"`
-	PhaseMargin    Number             `json:"phase_margin_deg"`
-	GainCrossover  Number             `json:"gain_crossover"`
-	Ms             float64            `json:"ms"`
-	MsFreq         Number             `json:"ms_freq"`
-	Mt             float64            `json:"mt"`
-	MtFreq         Number             `json:"mt_freq"`
+	GainMargin     Number       `json:"gain_margin"`
+	GainMargins    []GainMargin `json:"gain_margins"`
+	GainMarginDB   Number       `json:"gain_margin_db"`
+	PhaseCrossover Number       `json:"phase_crossover"`
+	PhaseMargin    Number       `json:"phase_margin_deg"`
+	GainCrossover  Number       `json:"gain_crossover"`
+	Ms             float64      `json:"ms"`
+	MsFreq         Number       `json:"ms_freq"`
+	Mt             float64      `json:"mt"`
+	MtFreq         Number       `json:"mt_freq"`
 	// Robustness says whether the margins and Ms are robustness figures:
 	// only for a stable loop are they distances to instability.
-	Robustness     string             `json:"robustness"`
-	Fragility      *Fragility         `json:"fragility,omitempty"`
-	Ultimate       *Ultimate          `json:"ultimate,omitempty"`
-	Caution        string             `json:"caution"`
+	Robustness string     `json:"robustness"`
+	Fragility  *Fragility `json:"fragility,omitempty"`
+	Ultimate   *Ultimate  `json:"ultimate,omitempty"`
+	Caution    string     `json:"caution"`
 }
 
 // GainMargin is the margin of one phase crossover (arg L = −180°): the

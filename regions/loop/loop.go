@@ -7,25 +7,42 @@ package loop
 import (
 	"fmt"
 
+	"gainscape/regions/delay"
 	"gainscape/regions/family"
 	"gainscape/regions/poly"
 	"gainscape/regions/routh"
 	"gainscape/regions/stability"
+	"gainscape/regions/unitcircle"
 )
 
-// Plant is the model of the process under control:
+// Plant is the model of the process under control, with ascending
+// coefficients:
 //
 //	G(s) = Num(s)/Den(s)·e^(−Delay·s)
 //
-// with ascending coefficients. Sample, when positive, makes the loop a
-// sampled-data loop with that sample time (seconds).
+// in continuous time, or, when Sample is positive, G(z) = Num(z)/Den(z),
+// the plant as a digital controller sampling every Sample time units sees
+// it (through a zero-order hold, any dead time folded into powers of z:
+// see package zoh), Delay then being 0.
 type Plant struct {
 	Num, Den poly.Poly
-	// Delay is the dead time in seconds, 0 for none.
+	// Delay is the dead time of a continuous-time plant, 0 for none.
 	Delay float64
-	// Sample is the sample time of a sampled-data loop in seconds, 0 for
-	// a continuous-time loop.
+	// Sample is the sample time of a sampled-data loop, 0 for a
+	// continuous-time loop.
 	Sample float64
+}
+
+// Kind names the kind of a loop, for reports: "continuous", "dead time"
+// or "sampled".
+func (p Plant) Kind() string {
+	switch {
+	case p.Sample > 0:
+		return "sampled"
+	case p.Delay > 0:
+		return "dead time"
+	}
+	return "continuous"
 }
 
 // Loop is a plant under a controller family with one value per parameter.
@@ -65,23 +82,42 @@ func (l Loop) Open() (num, den poly.Poly) {
 }
 
 // Characteristic returns the closed-loop characteristic polynomial
-// Dc·D + Nc·N at the loop's parameter values, without leading
-// coefficients that are exactly zero: a structure that lacks a term (an
-// ideal derivative, tau = 0) has a lower degree, not a root at infinity.
+// Dc·D + Nc·N at the loop's parameter values (in s, or in z for a sampled
+// loop), without leading coefficients that are exactly zero: a structure
+// that lacks a term (an ideal derivative, tau = 0) has a lower degree,
+// not a root at infinity. A loop with dead time has no characteristic
+// polynomial; it panics then (use Function).
 func (l Loop) Characteristic() poly.Poly {
+	if l.Plant.Delay > 0 {
+		panic("loop: a loop with dead time has a characteristic function, not a polynomial")
+	}
 	num, den := l.Open()
 	return poly.Add(den, num).Trim(0)
 }
 
 // Function returns the closed-loop characteristic function at the loop's
-// parameter values, the argument of the loop's stability Test.
+// parameter values, the argument of the loop's stability Test: the
+// characteristic polynomial, or for a loop with dead time
+// Δ(s) = Dc·D + Nc·N·e^(−Delay·s).
 func (l Loop) Function() stability.Function {
+	if l.Plant.Delay > 0 {
+		num, den := l.Open()
+		return stability.Function{P: den, Q: num, Delay: l.Plant.Delay}
+	}
 	return stability.Function{P: l.Characteristic()}
 }
 
-// Test returns the stability test for the loop: the Routh sign array for
-// a continuous-time loop without dead time.
+// Test returns the stability test for the loop: the count of roots
+// outside the unit circle for a sampled loop, the argument principle on
+// the quasi-polynomial for a loop with dead time, the Routh sign array
+// otherwise.
 func (l Loop) Test() stability.Test {
+	switch {
+	case l.Plant.Sample > 0:
+		return unitcircle.Test{T: l.Plant.Sample}
+	case l.Plant.Delay > 0:
+		return delay.Test{}
+	}
 	return routh.Test{}
 }
 

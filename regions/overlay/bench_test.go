@@ -2,7 +2,6 @@ package overlay
 
 import (
 	"context"
-	"math"
 	"testing"
 
 	"gainscape/regions/plane"
@@ -66,45 +65,13 @@ func benchCount(b *testing.B, setup func(testing.TB) plane.Setup) {
 }
 
 func benchShift(b *testing.B, setup func(testing.TB) plane.Setup) {
-	t := newShiftTest(setup(b).Char.Len())
-	benchNodes(b, setup, func(p poly.Poly) { t.decay(p) })
-}
-
-// countDecay is the same bisection as shiftTest.decay with routh.Count as
-// the Hurwitz test, kept here only to measure the lean test against it.
-func countDecay(t *shiftTest, work []float64, p poly.Poly) float64 {
-	n := len(p) - 1
-	hurwitz := func(sigma float64) bool {
-		q := t.q[:len(p)]
-		copy(q, p)
-		for i := 0; i < n; i++ {
-			for j := n - 1; j >= i; j-- {
-				q[j] -= sigma * q[j+1]
-			}
-		}
-		rhp, zeros, st := routh.Count(q, work)
-		return st == routh.Decided && rhp == 0 && zeros == 0
-	}
-	lo, hi := 0.0, p[n-1]/(float64(n)*p[n])
-	for hi-lo > math.Max(decayRelTol*lo, decayAbsTol*hi) {
-		if m := 0.5 * (lo + hi); hurwitz(m) {
-			lo = m
-		} else {
-			hi = m
-		}
-	}
-	return 0.5 * (lo + hi)
-}
-
-func benchShiftCount(b *testing.B, setup func(testing.TB) plane.Setup) {
-	n := setup(b).Char.Len()
-	t, work := newShiftTest(n), make([]float64, routh.WorkLen(n))
-	benchNodes(b, setup, func(p poly.Poly) { countDecay(t, work, p) })
+	g := routh.Test{}.NewGrader(setup(b).Char.Len())
+	benchNodes(b, setup, func(p poly.Poly) { g.Decay(stability.Function{P: p}) })
 }
 
 func benchEigen(b *testing.B, setup func(testing.TB) plane.Setup) {
-	f := newPoleFinder(setup(b).Char.Len())
-	benchNodes(b, setup, func(p poly.Poly) { f.decayAndDamping(p) })
+	f := poly.NewFinder(setup(b).Char.Len())
+	benchNodes(b, setup, func(p poly.Poly) { f.DecayAndDamping(p) })
 }
 
 func benchRoots(b *testing.B, setup func(testing.TB) plane.Setup) {
@@ -143,7 +110,7 @@ func BenchmarkNode(b *testing.B) {
 			name string
 			run  func(*testing.B, func(testing.TB) plane.Setup)
 		}{
-			{"Count", benchCount}, {"DecayShift", benchShift}, {"DecayCount", benchShiftCount}, {"DecayEigen", benchEigen},
+			{"Count", benchCount}, {"DecayShift", benchShift}, {"DecayEigen", benchEigen},
 			{"PolyRoots", benchRoots},
 			{"Compute", func(b *testing.B, s func(testing.TB) plane.Setup) { benchCompute(b, s, false) }},
 			{"ComputeDamp", func(b *testing.B, s func(testing.TB) plane.Setup) { benchCompute(b, s, true) }},

@@ -17,6 +17,7 @@ import (
 	"gainscape/regions/grid"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // Sensitivity evaluates a robustness measure, normally the maximum
@@ -104,11 +105,11 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 				continue
 			}
 			x := s.X.At(i)
-			p := s.Function(e.buf, x, y).P
+			f := s.Function(e.buf, x, y)
 			if opt.Damping {
-				g.Decay[k], g.Damping[k] = e.poles.decayAndDamping(p)
+				g.Decay[k], g.Damping[k] = e.grader.DecayDamping(f)
 			} else {
-				g.Decay[k] = e.shift.decay(p)
+				g.Decay[k] = e.grader.Decay(f)
 			}
 			if opt.Sensitivity != nil {
 				g.Ms[k] = opt.Sensitivity(s.OpenLoop(e.buf, x, y))
@@ -139,12 +140,10 @@ func nanSlice(n int) []float64 {
 
 // evaluator is one worker's scratch space.
 type evaluator struct {
-	buf   *plane.Scratch
-	poles *poleFinder
-	shift *shiftTest
+	buf    *plane.Scratch
+	grader stability.Grader
 }
 
 func newEvaluator(s plane.Setup) *evaluator {
-	n := s.Char.Len()
-	return &evaluator{buf: s.NewScratch(), poles: newPoleFinder(n), shift: newShiftTest(n)}
+	return &evaluator{buf: s.NewScratch(), grader: s.Test().NewGrader(s.Len())}
 }

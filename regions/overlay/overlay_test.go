@@ -11,6 +11,8 @@ import (
 	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/poly"
+	"gainscape/regions/routh"
+	"gainscape/regions/stability"
 )
 
 // decayTol is the agreement required with gonum's eigenvalues, relative to
@@ -119,10 +121,10 @@ func TestDecayOfRandomHurwitzPolynomials(t *testing.T) {
 		}
 		p := poly.FromRoots(roots).Scaled(0.1 + rng.Float64())
 		lim := decayTol * scale
-		if got := newShiftTest(len(p)).decay(p); math.Abs(got-slowest) > lim {
+		if got := (routh.Test{}).NewGrader(len(p)).Decay(stability.Function{P: p}); math.Abs(got-slowest) > lim {
 			t.Fatalf("trial %d: shift decay %.12g; built %.12g (roots %v)", trial, got, slowest, roots)
 		}
-		if got, _ := newPoleFinder(len(p)).decayAndDamping(p); math.Abs(got-slowest) > lim {
+		if got, _ := poly.NewFinder(len(p)).DecayAndDamping(p); math.Abs(got-slowest) > lim {
 			t.Fatalf("trial %d: eigen decay %.12g; built %.12g", trial, got, slowest)
 		}
 	}

@@ -35,7 +35,7 @@ func (pr *prober) stable(x, y float64) bool { return pr.counter.Count(pr.functio
 // (x, y) from the eigenvalues; the decay rate is negative where the loop
 // is unstable, which lets the searches step across the boundary and back.
 func (pr *prober) decayAndDamping(x, y float64) (float64, float64) {
-	return pr.e.poles.decayAndDamping(pr.function(x, y).P)
+	return pr.e.grader.DecayDamping(pr.function(x, y))
 }
 
 // ms returns the sensitivity evaluator's value at (x, y), NaN without one.

@@ -72,7 +72,7 @@ func (s Setup) Test() stability.Test { return s.test }
 
 // NewCounter returns a stability counter sized for the setup, for one
 // goroutine.
-func (s Setup) NewCounter() stability.Counter { return s.test.NewCounter(s.Char.Len()) }
+func (s Setup) NewCounter() stability.Counter { return s.test.NewCounter(s.Len()) }
 
 // Scratch holds one goroutine's coefficient buffers for evaluating a setup
 // at points of its plane.
@@ -86,10 +86,19 @@ func (s Setup) NewScratch() *Scratch {
 }
 
 // Function returns the characteristic function at (x, y) in sc's
-// buffers, valid until sc is used again. It does not allocate.
+// buffers, valid until sc is used again: the characteristic polynomial,
+// or for a loop with dead time P = Dc·D and Q = Nc·N of
+// Δ(s) = P(s) + Q(s)·e^(−Ls). It does not allocate.
 func (s Setup) Function(sc *Scratch, x, y float64) stability.Function {
+	if L := s.Plant.Delay; L > 0 {
+		return stability.Function{P: s.OpenDen.EvalInto(sc.den, x, y), Q: s.OpenNum.EvalInto(sc.num, x, y), Delay: L}
+	}
 	return stability.Function{P: s.Char.EvalInto(sc.p, x, y)}
 }
+
+// Len returns the largest number of coefficients of a polynomial the
+// setup's functions hold, for sizing counters and graders.
+func (s Setup) Len() int { return max(s.Char.Len(), s.OpenNum.Len(), s.OpenDen.Len()) }
 
 // OpenLoop returns the open-loop numerator and denominator at (x, y) in
 // sc's buffers, without leading coefficients that are exactly zero (such

@@ -179,7 +179,10 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			Denominator intoNumbers `toml:"denominator"`
 			Controller  intoString  `toml:"controller"`
 			TimeUnit    intoString  `toml:"time_unit"`
-		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit}},
+			Sample      intoNumber  `toml:"sample"`
+			Integral    intoString  `toml:"integral"`
+		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit},
+			intoNumber{&l.Sample}, intoString{&l.Integral}},
 		"axes": &struct {
 			X    intoAxis `toml:"x"`
 			Y    intoAxis `toml:"y"`

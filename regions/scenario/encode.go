@@ -59,6 +59,8 @@ func encode(w io.Writer, s Scenario, name string) error {
 	}
 	fmt.Fprintf(&b, "controller = %s\n", quote(l.Controller))
 	fmt.Fprintf(&b, "time_unit = %s    # the unit of time of s: labels only\n", quote(l.TimeUnit))
+	fmt.Fprintf(&b, "sample = %s    # sample time of a digital controller; 0: continuous\n", formatNumber(l.Sample))
+	fmt.Fprintf(&b, "integral = %s    # a digital integral: backward, forward or trapezoid\n", quote(l.Integral))
 
 	a := s.Axes
 	b.WriteString("\n[axes]\n")

@@ -56,6 +56,14 @@ type Loop struct {
 	// TimeUnits, "s" by default. It labels frequencies (rad per unit),
 	// decay rates (1 per unit) and periods; the numbers do not change.
 	TimeUnit string
+	// Sample, when positive, is the sample time of a digital controller
+	// (--sample): the plant in s is held and sampled, a plant in z is
+	// taken as it is. 0 means a continuous-time controller.
+	Sample float64
+	// Integral is the discretisation of a digital controller's integral
+	// (--integral): "backward" (the default, also when empty), "forward"
+	// or "trapezoid".
+	Integral string
 }
 
 // Axes is the window: the two swept parameters and the grid over them.

@@ -68,6 +68,12 @@ func (l Loop) validate(v *validator) {
 		v.add("loop.controller", "%s: no controller family; give one such as \"pid\"", strconv.Quote(l.Controller))
 	}
 	v.text("loop.controller", l.Controller)
+	if !finite(l.Sample) || l.Sample < 0 {
+		v.add("loop.sample", "%s: a sample time is a positive number, or 0 for a continuous-time controller", formatNumber(l.Sample))
+	}
+	if !slices.Contains([]string{"", "backward", "forward", "trapezoid"}, l.Integral) {
+		v.add("loop.integral", "%s is not a rule for the integral; use backward, forward or trapezoid", quoteShort(l.Integral))
+	}
 	if !slices.Contains(TimeUnits, l.TimeUnit) {
 		v.add("loop.time_unit", "%s is not a unit of time; use one of %s", quoteShort(l.TimeUnit), strings.Join(TimeUnits, ", "))
 	}

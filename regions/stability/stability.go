@@ -120,6 +120,24 @@ type Test interface {
 	// Report is the full verdict for one point, with the working of the
 	// test as a person would write it down.
 	Report(f Function) Report
+	// NewGrader returns a Grader for functions whose polynomials have at
+	// most n coefficients.
+	NewGrader(n int) Grader
+}
+
+// Grader measures how deep inside the stable side a point lies, for the
+// overlays and searches of a map. It is meant for stable points; at an
+// unstable one the decay rate is negative. A Grader is not safe for
+// concurrent use.
+type Grader interface {
+	// Decay returns the decay rate σ: every transient decays at least as
+	// fast as e^(−σt). For a continuous-time loop it is −max Re s over
+	// the roots; for a sampled-data loop the continuous equivalent
+	// −ln(max |z|)/T.
+	Decay(f Function) float64
+	// DecayDamping returns the decay rate and the smallest damping ratio
+	// of the roots (of their continuous equivalents, for a sampled loop).
+	DecayDamping(f Function) (decay, damping float64)
 }
 
 // Crossing says how roots cross the stability boundary at one point.

@@ -11,6 +11,7 @@ import (
 	"gainscape/regions/loop"
 	"gainscape/regions/poly"
 	"gainscape/regions/spec"
+	"gainscape/regions/zoh"
 )
 
 // LoopSpec is a loop as the user gives it: a plant expression or
@@ -24,6 +25,14 @@ type LoopSpec struct {
 	// TimeUnit is the unit of time of s (scenario.TimeUnits); it labels
 	// the reports only.
 	TimeUnit string
+	// Sample, when positive, makes the loop a sampled-data loop with a
+	// digital controller: a plant in s is discretised with a zero-order
+	// hold (zoh.Discretise, its dead time included), a plant in z is
+	// taken as it is, and the controller is the digital form of its
+	// structure with Integral the rule for its integral (family.Digital;
+	// "" is the default, backward).
+	Sample   float64
+	Integral string
 }
 
 // PlantText is the plant as the user gave it, for titles and reports.
@@ -39,14 +48,17 @@ func (ls LoopSpec) PlantText() string {
 // *InputError values naming the flag of the faulty input.
 func (ls LoopSpec) Build() (loop.Loop, error) {
 	var pn, pd poly.Poly
+	var delay float64
+	inZ := false
 	switch {
 	case ls.Plant != "" && (ls.Num != nil || ls.Den != nil):
 		return loop.Loop{}, inputErr("--plant", "loop.plant", "", "cannot be combined with --num/--den; give the plant one way")
 	case ls.Plant != "":
-		var err error
-		if pn, pd, err = expr.Parse(ls.Plant); err != nil {
+		pl, err := ls.parsePlant()
+		if err != nil {
 			return loop.Loop{}, &InputError{Flag: "--plant", Key: "loop.plant", Err: err}
 		}
+		pn, pd, delay, inZ = pl.Num, pl.Den, pl.Delay, pl.Var == 'z'
 		if err := expr.Check(pn, pd); err != nil {
 			return loop.Loop{}, &InputError{Flag: "--plant", Key: "loop.plant", Value: strconv.Quote(ls.Plant), Err: err}
 		}
@@ -69,7 +81,24 @@ func (ls LoopSpec) Build() (loop.Loop, error) {
 	if err != nil {
 		return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
 	}
-	l := loop.New(loop.Plant{Num: pn, Den: pd}, fam)
+	plant := loop.Plant{Num: pn, Den: pd, Delay: delay}
+	if ls.Sample > 0 {
+		if plant, err = ls.sampled(plant, inZ); err != nil {
+			return loop.Loop{}, err
+		}
+		rule := family.Backward
+		if ls.Integral != "" {
+			if rule, err = family.ParseIntegralRule(ls.Integral); err != nil {
+				return loop.Loop{}, &InputError{Flag: "--integral", Key: "loop.integral", Err: err}
+			}
+		}
+		if fam, err = family.Digital(fam.Name(), ls.Sample, rule); err != nil {
+			return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
+		}
+	} else if inZ {
+		return loop.Loop{}, inputErr("--plant", "loop.plant", strconv.Quote(ls.Plant), "a plant in z needs the sample time: give --sample T")
+	}
+	l := loop.New(plant, fam)
 	for _, v := range ls.Fixed {
 		i, err := family.Index(fam, v.Param)
 		if err != nil {
@@ -78,6 +107,34 @@ func (ls LoopSpec) Build() (loop.Loop, error) {
 		l.Values[i] = v.V
 	}
 	return l, nil
+}
+
+// parsePlant reads the plant expression: in s, with at most one dead
+// time, or, for a sampled loop, in z when it is written in z.
+func (ls LoopSpec) parsePlant() (expr.Plant, error) {
+	pl, err := expr.ParsePlant(ls.Plant)
+	if err == nil {
+		return pl, nil
+	}
+	if zp, zerr := expr.ParseIn(ls.Plant, 'z'); zerr == nil {
+		return zp, nil
+	}
+	return expr.Plant{}, err
+}
+
+// sampled returns the plant a digital controller sampling every
+// ls.Sample sees: the plant itself when it is given in z, its zero-order
+// hold discretisation when it is given in s.
+func (ls LoopSpec) sampled(p loop.Plant, inZ bool) (loop.Plant, error) {
+	T := ls.Sample
+	if inZ {
+		return loop.Plant{Num: p.Num, Den: p.Den, Sample: T}, nil
+	}
+	num, den, err := zoh.Discretise(p.Num, p.Den, T, p.Delay)
+	if err != nil {
+		return loop.Plant{}, &InputError{Flag: "--sample", Key: "loop.sample", Value: strconv.FormatFloat(T, 'g', -1, 64), Err: err}
+	}
+	return loop.Plant{Num: num, Den: den, Sample: T}, nil
 }
 
 // Value is a named parameter value, for reports that list parameters in

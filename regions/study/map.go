@@ -25,7 +25,8 @@ type MapJob struct {
 // NewMap checks a validated scenario and builds its loop and plane. Errors
 // are *InputError values.
 func NewMap(sc scenario.Scenario) (*MapJob, error) {
-	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit}
+	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit,
+		Sample: sc.Loop.Sample, Integral: sc.Loop.Integral}
 	l, err := ls.Build()
 	if err != nil {
 		return nil, err

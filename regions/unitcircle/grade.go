@@ -8,6 +8,7 @@ import (
 	lapackgonum "gonum.org/v1/gonum/lapack/gonum"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // Grade is how fast and how well damped the roots of a sampled loop are,
@@ -127,4 +128,28 @@ func (g *Grader) Grade(p poly.Poly) (Grade, error) {
 	}
 	gr.Decay = -math.Log(gr.Radius) / g.T
 	return gr, nil
+}
+
+// NewGrader implements stability.Test: decay rate and damping from the
+// roots of P (Grader), through their continuous equivalents.
+func (t Test) NewGrader(n int) stability.Grader {
+	t.check()
+	return testGrader{NewGrader(n, t.T)}
+}
+
+type testGrader struct{ g *Grader }
+
+// Decay implements stability.Grader; NaN when the roots cannot be found.
+func (t testGrader) Decay(f stability.Function) float64 {
+	d, _ := t.DecayDamping(f)
+	return d
+}
+
+// DecayDamping implements stability.Grader.
+func (t testGrader) DecayDamping(f stability.Function) (decay, damping float64) {
+	g, err := t.g.Grade(f.P)
+	if err != nil {
+		return math.NaN(), math.NaN()
+	}
+	return g.Decay, g.Damping
 }

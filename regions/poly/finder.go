@@ -1,17 +1,16 @@
-package overlay
+package poly
 
 import (
 	"math"
 
 	"gonum.org/v1/gonum/lapack"
 	lapackgonum "gonum.org/v1/gonum/lapack/gonum"
-
-	"gainscape/regions/poly"
 )
 
-// poleFinder computes the roots of polynomials up to a fixed degree as the
+// Finder computes the roots of polynomials up to a fixed degree as the
 // eigenvalues of their companion matrices, reusing its buffers so that it
-// allocates nothing.
+// allocates little (gonum's QR iteration keeps one small array on the heap
+// per iteration).
 //
 // The companion matrix (first row −p[n−1..0]/p[n], ones on the
 // subdiagonal) is already upper Hessenberg, so the Hessenberg reduction of
@@ -22,15 +21,14 @@ import (
 // the double-shift QR algorithm (J. G. F. Francis, "The QR transformation",
 // Computer Journal 4, 1961–62; gonum's Dlahqr). These are the steps
 // poly.Roots takes through gonum's mat.Eigen, without its allocations.
-type poleFinder struct {
+type Finder struct {
 	h, scale, wr, wi []float64
 }
 
-// newPoleFinder returns a poleFinder for polynomials with up to n
-// coefficients.
-func newPoleFinder(n int) *poleFinder {
+// NewFinder returns a Finder for polynomials with up to n coefficients.
+func NewFinder(n int) *Finder {
 	d := max(n-1, 1)
-	return &poleFinder{
+	return &Finder{
 		h:     make([]float64, d*d),
 		scale: make([]float64, d),
 		wr:    make([]float64, d),
@@ -40,11 +38,12 @@ func newPoleFinder(n int) *poleFinder {
 
 var lapackImpl lapackgonum.Implementation
 
-// poles returns the real and imaginary parts of the roots of p, after
+// Roots returns the real and imaginary parts of the roots of p, after
 // dropping leading coefficients that are exactly zero, in slices owned by
-// f. ok is false when the QR
-// iteration did not converge or p has no non-zero coefficient.
-func (f *poleFinder) poles(p poly.Poly) (re, im []float64, ok bool) {
+// f and valid until its next use. ok is false when the QR iteration did
+// not converge or p has no non-zero coefficient. It panics if p has more
+// coefficients than f was made for.
+func (f *Finder) Roots(p Poly) (re, im []float64, ok bool) {
 	p = p.Trim(0)
 	n := len(p) - 1
 	if n < 0 {
@@ -70,13 +69,13 @@ func (f *poleFinder) poles(p poly.Poly) (re, im []float64, ok bool) {
 	return re, im, true
 }
 
-// decayAndDamping returns the decay rate σ = −max Re(pole) and the
-// smallest damping ratio ζ = min −Re(pole)/|pole| of the roots of p, NaN
+// DecayAndDamping returns the decay rate σ = −max Re(root) and the
+// smallest damping ratio ζ = min −Re(root)/|root| of the roots of p, NaN
 // for both when the eigenvalues cannot be computed. A polynomial without
-// roots (a constant) has neither a slowest nor a least damped pole: +Inf
+// roots (a constant) has neither a slowest nor a least damped root: +Inf
 // and 1.
-func (f *poleFinder) decayAndDamping(p poly.Poly) (decay, damping float64) {
-	re, im, ok := f.poles(p)
+func (f *Finder) DecayAndDamping(p Poly) (decay, damping float64) {
+	re, im, ok := f.Roots(p)
 	if !ok {
 		return math.NaN(), math.NaN()
 	}

@@ -1,9 +1,10 @@
-package overlay
+package routh
 
 import (
 	"math"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // shiftTest finds the decay rate of a polynomial with the sign array
@@ -35,15 +36,15 @@ const (
 // hurwitz reports whether p(s − σ) has every root in the open left half
 // plane.
 //
-// It is a lean form of the Routh test, not routh.Count: a Hurwitz
+// It is a lean form of the Routh test, not Count: a Hurwitz
 // polynomial has coefficients of one sign (A. Stodola's necessary
 // condition) and a regular array whose first column keeps that sign, so
 // the test may stop at the first coefficient or pivot of the wrong sign
 // and needs neither the special cases nor the rounding-error bounds that
 // counting roots requires. A wrong answer is possible only for shifts
 // within rounding of the decay rate, which moves the result by that much.
-// In the same bisection it is 1.4 to 1.6 times faster than routh.Count
-// (BenchmarkNodeDecayCount beside BenchmarkNodeDecayShift).
+// In the same bisection it is 1.4 to 1.6 times faster than Count
+// (the overlay package's BenchmarkNode, DecayCount beside DecayShift).
 func (t *shiftTest) hurwitz(p poly.Poly, sigma float64) bool {
 	q := t.q[:len(p)]
 	copy(q, p)
@@ -125,4 +126,24 @@ func (t *shiftTest) decay(p poly.Poly) float64 {
 		}
 	}
 	return 0.5 * (lo + hi)
+}
+
+// NewGrader implements stability.Test: the decay rate by the shifted sign
+// array (shiftTest), which allocates nothing, and the damping ratio from
+// the eigenvalues of the companion matrix, which it needs.
+func (Test) NewGrader(n int) stability.Grader {
+	return grader{shift: newShiftTest(n), roots: poly.NewFinder(n)}
+}
+
+type grader struct {
+	shift *shiftTest
+	roots *poly.Finder
+}
+
+// Decay implements stability.Grader.
+func (g grader) Decay(f stability.Function) float64 { return g.shift.decay(f.P) }
+
+// DecayDamping implements stability.Grader.
+func (g grader) DecayDamping(f stability.Function) (decay, damping float64) {
+	return g.roots.DecayAndDamping(f.P)
 }
