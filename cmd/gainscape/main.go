@@ -70,7 +70,17 @@ Run "gainscape help map" or "gainscape help probe" for every flag with examples.
 var commands = []string{"map", "probe", "help", "version"}
 
 func main() {
-	ctx, stop := interrupt.Watch(context.Background(), interrupt.DefaultGrace, safefile.AbortAll)
+	var ctx context.Context
+	// When the run does not stop within the grace period of a signal,
+	// the watch removes the temporary files and ends the process itself;
+	// it still says why.
+	cleanup := func() {
+		safefile.AbortAll()
+		if ie := interrupt.Cause(ctx); ie != nil {
+			fmt.Fprintln(os.Stderr, "gainscape:", ie.Error()+"; no file was written or changed")
+		}
+	}
+	ctx, stop := interrupt.Watch(context.Background(), interrupt.DefaultGrace, cleanup)
 	code := run(ctx, os.Args[1:], os.Stdout, os.Stderr)
 	stop()
 	os.Exit(code)

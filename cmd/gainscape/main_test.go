@@ -43,66 +43,6 @@ func runBinary(t *testing.T, dir string, args ...string) (stdout, stderr string,
 	return out.String(), errb.String(), code
 }
 
-// TestBadInputs runs the built command on each kind of bad input and
-// checks the one-line message, the exit code 2 and that no file is left.
-func TestBadInputs(t *testing.T) {
-	tests := []struct {
-		name string
-		args []string
-		want []string // substrings of the error line
-	}{
-		{"syntax error", []string{"--plant", "2*(s+1"}, []string{"--plant", "column 7", `")"`}},
-		{"improper plant", []string{"--plant", "(s+1)^2/(s+3)"}, []string{"not proper"}},
-		{"zero denominator", []string{"--num", "1", "--den", "0, 0"}, []string{"--den"}},
-		{"NaN coefficient", []string{"--num", "1", "--den", "1, NaN"}, []string{"--den", "NaN"}},
-		{"empty numerator", []string{"--num", "", "--den", "1, 1"}, []string{"--plant", "--num"}},
-		{"plant given twice", []string{"--plant", "1/(s+1)", "--num", "1", "--den", "1,1"}, []string{"one way"}},
-		{"unknown controller", []string{"--plant", "1/(s+1)", "--ctrl", "pidd"}, []string{"--ctrl", "pidd"}},
-		{"unknown axis parameter", []string{"--plant", "1/(s+1)", "--ctrl", "pi", "--x", "kd=0:1"}, []string{"--x", "kd"}},
-		{"same axis twice", []string{"--plant", "1/(s+1)", "--ctrl", "pi", "--x", "kp=0:1", "--y", "kp=0:2"}, []string{"kp"}},
-		{"axis also fixed", []string{"--plant", "1/(s+1)", "--ctrl", "pi", "--set", "kp=1"}, []string{"--set", "kp", "axis"}},
-		{"min above max", []string{"--plant", "1/(s+1)", "--x", "kp=5:1"}, []string{"--x", "kp=5:1"}},
-		{"grid too small", []string{"--plant", "1/(s+1)", "--grid", "1x10"}, []string{"--grid", "1x10"}},
-		{"grid too large", []string{"--plant", "1/(s+1)", "--grid", "5000x10"}, []string{"--grid", "5000"}},
-		{"unknown extension", []string{"--plant", "1/(s+1)", "-o", "map.jpg"}, []string{"--out", "map.jpg"}},
-		{"missing directory", []string{"--plant", "1/(s+1)", "-o", "nowhere/map.png"}, []string{"--out", "nowhere"}},
-		{"missing data directory", []string{"--plant", "1/(s+1)", "--data", "nowhere/m.json"}, []string{"--data", "nowhere"}},
-		{"unknown flag", []string{"--plnt", "1/(s+1)"}, []string{"plnt"}},
-		{"negative workers", []string{"--plant", "1/(s+1)", "--workers", "-2"}, []string{"--workers", "-2"}},
-		{"NaN fixed value", []string{"--plant", "1/(s+1)", "--set", "kd=NaN"}, []string{"--set", "NaN"}},
-		{"infinite axis end", []string{"--plant", "1/(s+1)", "--x", "kp=0:Inf"}, []string{"--x", "finite"}},
-		{"overflowing plant", []string{"--plant", "1e400/(s+1)"}, []string{"--plant"}},
-		{"unknown best search", []string{"--plant", "1/(s+1)", "--best", "fastest"}, []string{"--best", "fastest"}},
-		{"mark off the plane", []string{"--plant", "1/(s+1)", "--ctrl", "pi", "--mark", "kp=1"}, []string{"--mark", "ki"}},
-		{"bad size", []string{"--plant", "1/(s+1)", "--size", "1600x1200"}, []string{"--size"}},
-		{"bad format", []string{"--plant", "1/(s+1)", "-o", "-", "--format", "gif"}, []string{"--format", "gif"}},
-		{"bad level list", []string{"--plant", "1/(s+1)", "--ms-levels", "1.4,two"}, []string{"--ms-levels", "two"}},
-		{"scenario directory missing", []string{"--plant", "1/(s+1)", "--save-scenario", "nowhere/s.toml"}, []string{"--save-scenario", "nowhere"}},
-		{"extra argument", []string{"--plant", "1/(s+1)", "stray"}, []string{"stray"}},
-	}
-	for _, tc := range tests {
-		t.Run(tc.name, func(t *testing.T) {
-			dir := t.TempDir()
-			_, stderr, code := runBinary(t, dir, append([]string{"map"}, tc.args...)...)
-			if code != exitUsage {
-				t.Fatalf("exit code %d; want %d (stderr %q)", code, exitUsage, stderr)
-			}
-			lines := strings.Split(strings.TrimSpace(stderr), "\n")
-			if len(lines) != 1 {
-				t.Fatalf("stderr has %d lines; want one: %q", len(lines), stderr)
-			}
-			for _, w := range tc.want {
-				if !strings.Contains(stderr, w) {
-					t.Errorf("stderr %q does not contain %q", stderr, w)
-				}
-			}
-			if entries, _ := os.ReadDir(dir); len(entries) != 0 {
-				t.Errorf("files left behind: %v", entries)
-			}
-		})
-	}
-}
-
 // TestScalingWarning: coefficients spanning hundreds of decades draw a
 // warning on stderr but still produce a map.
 func TestScalingWarning(t *testing.T) {

@@ -1,46 +1,11 @@
 package main
 
 import (
-	"bytes"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
-	"syscall"
 	"testing"
-	"time"
 )
-
-// TestInterruptLeavesNoFile interrupts a large map midway: the command
-// must stop promptly with exit code 130 and leave no file behind.
-func TestInterruptLeavesNoFile(t *testing.T) {
-	dir := t.TempDir()
-	cmd := exec.Command(binary, "map", "--grid", "4000x4000", "-o", "big.png", "--data", "big.json")
-	cmd.Dir = dir
-	var stderr bytes.Buffer
-	cmd.Stderr = &stderr
-	if err := cmd.Start(); err != nil {
-		t.Fatal(err)
-	}
-	time.Sleep(400 * time.Millisecond)
-	if err := cmd.Process.Signal(syscall.SIGINT); err != nil {
-		t.Fatal(err)
-	}
-	done := make(chan error, 1)
-	go func() { done <- cmd.Wait() }()
-	select {
-	case <-done:
-	case <-time.After(20 * time.Second):
-		cmd.Process.Kill()
-		t.Fatal("the command did not stop after an interrupt")
-	}
-	if code := cmd.ProcessState.ExitCode(); code != 128+int(syscall.SIGINT) {
-		t.Fatalf("exit code %d; want %d (stderr %q)", code, 128+int(syscall.SIGINT), stderr.String())
-	}
-	if entries, _ := os.ReadDir(dir); len(entries) != 0 {
-		t.Fatalf("files left after the interrupt: %v", entries)
-	}
-}
 
 // TestImageToStdout checks "-o -": the PNG goes to standard output and the
 // report to standard error.

@@ -181,7 +181,6 @@ func TestValidateErrors(t *testing.T) {
 		{"data that is not JSON", func(s *Scenario) { s.Output.Data = "map.png" }, "output.data", "a data file takes the extension .json"},
 		{"CSV without its extension", func(s *Scenario) { s.Output.CSV = "edges.txt" }, "output.csv", ".csv"},
 		{"note of an unknown type", func(s *Scenario) { s.Output.Note = "note.doc" }, "output.note", ".md or .txt"},
-		{"data to standard output", func(s *Scenario) { s.Output.Data = "-" }, "output.data", `"-"`},
 		{"path with a NUL", func(s *Scenario) { s.Output.Image = "a\x00.png" }, "output.image", "NUL"},
 		{"width zero", func(s *Scenario) { s.Output.WidthCm = 0 }, "output.width_cm", "0 cm"},
 		{"height in millimetres", func(s *Scenario) { s.Output.HeightCm = 500 }, "output.height_cm", "500 cm is outside"},

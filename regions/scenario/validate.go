@@ -204,7 +204,7 @@ func (v *validator) text(key, s string) {
 // of the extensions of its kind, in any letter case.
 func (v *validator) path(key, p, kind string, exts []string) {
 	switch {
-	case p == "" || (p == "-" && key == "output.image"):
+	case p == "" || p == "-":
 	case !utf8.ValidString(p):
 		v.text(key, p)
 	case strings.ContainsRune(p, 0):

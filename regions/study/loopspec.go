@@ -99,6 +99,13 @@ func (ls LoopSpec) Build() (loop.Loop, error) {
 		return loop.Loop{}, inputErr("--plant", "loop.plant", strconv.Quote(ls.Plant), "a plant in z needs the sample time: give --sample T")
 	}
 	l := loop.New(plant, fam)
+	if n, d := l.Open(); max(len(n), len(d))-1 > MaxDegree {
+		flag, key := "--plant", "loop.plant"
+		if ls.Plant == "" {
+			flag, key = "--den", "loop.denominator"
+		}
+		return loop.Loop{}, inputErr(flag, key, "", "plant and controller %s make a loop of degree %d; the limit is %d", fam.Name(), max(len(n), len(d))-1, MaxDegree)
+	}
 	for _, v := range ls.Fixed {
 		i, err := family.Index(fam, v.Param)
 		if err != nil {
@@ -136,6 +143,12 @@ func (ls LoopSpec) sampled(p loop.Plant, inZ bool) (loop.Plant, error) {
 	}
 	return loop.Plant{Num: num, Den: den, Sample: T}, nil
 }
+
+// MaxDegree is the highest degree of the closed-loop characteristic
+// polynomial (plant and controller together) a study accepts. The cost of
+// a node grows with the cube of the degree and the answers with the
+// conditioning of the roots, and loops of practical use stay far below it.
+const MaxDegree = 40
 
 // Value is a named parameter value, for reports that list parameters in
 // the family's order.
