@@ -28,6 +28,7 @@ bench:
 fuzz:
 	$(GO) test -run XXX -fuzz '^FuzzParse$$' -fuzztime 3m ./regions/expr/
 	$(GO) test -run XXX -fuzz '^FuzzParseList$$' -fuzztime 3m ./regions/expr/
+	$(GO) test -run XXX -fuzz '^FuzzParsePlant$$' -fuzztime 3m ./regions/expr/
 	$(GO) test -run XXX -fuzz '^FuzzCount$$' -fuzztime 3m ./regions/routh/
 	$(GO) test -run XXX -fuzz '^FuzzDecode$$' -fuzztime 3m ./regions/scenario/
 
