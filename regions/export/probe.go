@@ -119,13 +119,19 @@ type Vary struct {
 	Min        float64            `json:"min"`
 	Max        float64            `json:"max"`
 	Fixed      map[string]float64 `json:"fixed"`
-	Intervals  []Interval         `json:"intervals"`
-	Caution    string             `json:"caution"`
+	// SampleTime and Integral describe a sampled-data loop (the sample
+	// time in TimeUnit, the rule of the digital integral); both are
+	// omitted for a continuous-time loop.
+	SampleTime float64    `json:"sample_time,omitempty"`
+	Integral   string     `json:"integral,omitempty"`
+	Intervals  []Interval `json:"intervals"`
+	Caution    string     `json:"caution"`
 }
 
 // Interval is one stable interval (Lo, Hi) and how each end is reached.
 // A kind is "real", "complex", "infinite" or "window" (the end of the
-// range scanned).
+// range scanned), or for a sampled loop "alternating" (a real root
+// through z = −1, ω = π/T); "real" is then a root through z = 1.
 type Interval struct {
 	Lo      float64 `json:"lo"`
 	Hi      float64 `json:"hi"`
