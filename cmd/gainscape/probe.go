@@ -98,6 +98,10 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 func printProbe(w io.Writer, rep *study.ProbeReport) {
 	r := rep.Doc
 	u := rep.Units
+	if rep.Sampled != nil {
+		printSampledProbe(w, rep)
+		return
+	}
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
 	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
 	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
@@ -145,9 +149,17 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		}
 	}
 	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
+	printRobustness(w, rep)
+}
+
+// printRobustness writes the margins, Ms, the nearest edge and the
+// ultimate gain with the tuning rules, for any kind of loop.
+func printRobustness(w io.Writer, rep *study.ProbeReport) {
+	r := rep.Doc
+	u := rep.Units
 	if !r.Stable {
 		fmt.Fprintln(w, "The loop is not stable, so the figures below are no robustness margins: they")
-		fmt.Fprintln(w, "describe the open loop L(jω), not how far the loop is from instability.")
+		fmt.Fprintf(w, "describe the open loop %s, not how far the loop is from instability.\n", openLoopText(rep))
 	}
 	switch len(r.GainMargins) {
 	case 0:
@@ -178,17 +190,20 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
 	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
-		printFragility(w, fr, u)
+		printFragility(w, fr, u, r.SampleTime)
 	}
 	if ul := r.Ultimate; ul != nil {
 		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
+		if ul.Method != "" {
+			fmt.Fprintf(w, "  %s\n", ul.Method)
+		}
 		if !ul.RulesApply {
 			fmt.Fprintf(w, "  %s; their settings follow for reference only\n", ul.Note)
 		}
 		for _, rule := range ul.Rules {
 			verdict := "stable"
 			if !rule.Stable {
-				verdict = fmt.Sprintf("NOT stable (%d roots in the right half plane)", rule.RHP)
+				verdict = fmt.Sprintf("NOT stable (%d roots %s)", rule.RHP, unstableSide(rep))
 			}
 			fmt.Fprintf(w, "  %-24s kp = %-10.4g ki = %-10.4g kd = %-10.4g %s\n", rule.Name, rule.Kp, rule.Ki, rule.Kd, verdict)
 		}
@@ -200,8 +215,9 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	fmt.Fprintln(w, caution)
 }
 
-// printFragility writes the fragility lines of the probe report.
-func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
+// printFragility writes the fragility lines of the probe report; T is the
+// sample time of a sampled loop, 0 for a continuous one.
+func printFragility(w io.Writer, fr *export.Fragility, u study.Units, T float64) {
 	xn, yn := fr.Plane[0], fr.Plane[1]
 	if !fr.Found {
 		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
@@ -209,6 +225,9 @@ func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
 		return
 	}
 	edge := func(n *export.NearestEdge) string {
+		if T > 0 {
+			return circleEdgeText(n, u)
+		}
 		switch n.Kind.String() {
 		case "complex":
 			return fmt.Sprintf("a complex pair crosses at ω = %.4g %s", float64(n.Omega), u.Freq())

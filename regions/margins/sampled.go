@@ -6,6 +6,7 @@ import (
 	"math/cmplx"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/unitcircle"
 )
 
 // response is what the crossover and peak scans of measure need of a
@@ -43,44 +44,102 @@ func (l SampledLoop) Nyquist() float64 { return math.Pi / l.T }
 // in z.
 func (l SampledLoop) Characteristic() poly.Poly { return poly.Add(l.Den, l.Num) }
 
-// circlePoint returns cos and sin of ωT, exactly (−1, 0) at ω = π/T so
-// that the top end of a scan lies on the real axis, where L is real.
-func (l SampledLoop) circlePoint(w float64) (c, s float64) {
+// angle returns ωT, exactly π at ω = π/T so that the top end of a scan
+// lies on the real axis, where L is real.
+func (l SampledLoop) angle(w float64) float64 {
 	if w == l.Nyquist() {
-		return -1, 0
+		return math.Pi
 	}
-	s, c = math.Sincos(w * l.T)
-	return c, s
+	return w * l.T
 }
 
-// evalCircle returns p(c + j·s) by Horner's rule in complex arithmetic
-// written out in reals. For |c + j·s| = 1 its error is about n units in
-// the last place of Σ|p_k|, which is large relative to |p| only where p
-// is small on the circle: near a root on or close to it, or, for fast
-// sampling, near z = 1 where the roots crowd (about T^−n times the unit
-// roundoff for n roots within about T of z = 1).
-func evalCircle(p poly.Poly, c, s float64) (re, im float64) {
-	for k := len(p) - 1; k >= 0; k-- {
-		re, im = re*c-im*s+p[k], re*s+im*c
+// circlePoly is a polynomial in z ready to be evaluated on the unit
+// circle: with its Taylor coefficients at z = 1 and z = −1
+// (unitcircle.Shift) beside its own.
+type circlePoly struct{ p, at1, atM1 poly.Poly }
+
+func newCirclePoly(p poly.Poly) circlePoly {
+	c := circlePoly{p: p, at1: make(poly.Poly, len(p)), atM1: make(poly.Poly, len(p))}
+	unitcircle.Shift(c.at1, p, 1)
+	unitcircle.Shift(c.atM1, p, -1)
+	return c
+}
+
+// Zones of the circle, by which expansion a point is evaluated.
+const (
+	zoneDirect = iota // powers of z
+	zoneOne           // powers of δ = z − 1, for θ < π/3
+	zoneMinusOne      // powers of ε = z + 1, for θ > 2π/3
+)
+
+// circleBase returns the zone of the angle θ ∈ [0, π] and the point of
+// its expansion: z = e^(jθ), δ = e^(jθ) − 1 = −2·sin²(θ/2) + j·sin θ or
+// ε = e^(jθ) + 1 = 2·cos²(θ/2) + j·sin θ, each formed without
+// cancellation (ε = 0 exactly at θ = π).
+func circleBase(theta float64) (zone int, re, im float64) {
+	switch {
+	case theta == math.Pi:
+		return zoneMinusOne, 0, 0
+	case theta < math.Pi/3:
+		h := math.Sin(theta / 2)
+		return zoneOne, -2 * h * h, math.Sin(theta)
+	case theta > 2*math.Pi/3:
+		h := math.Cos(theta / 2)
+		return zoneMinusOne, 2 * h * h, math.Sin(theta)
+	}
+	s, c := math.Sincos(theta)
+	return zoneDirect, c, s
+}
+
+// eval returns p(e^(jθ)) by Horner's rule in the expansion of θ's zone.
+// Far from z = ±1 the plain powers of z serve; near them the Taylor
+// expansion about the nearer of the two keeps the digits that the roots
+// crowding there (a loop sampled fast) would cancel: its error is about n
+// units in the last place of Σ|q_k|·|δ|^k, which shrinks with |δ| as the
+// value does.
+func (c circlePoly) eval(theta float64) (re, im float64) {
+	zone, br, bi := circleBase(theta)
+	q := c.p
+	switch zone {
+	case zoneOne:
+		q = c.at1
+	case zoneMinusOne:
+		q = c.atM1
+	}
+	for k := len(q) - 1; k >= 0; k-- {
+		re, im = re*br-im*bi+q[k], re*bi+im*br
 	}
 	return re, im
 }
 
 // At returns L(e^(jωT)); an infinite value at a pole on the circle.
-func (l SampledLoop) At(w float64) complex128 {
-	c, s := l.circlePoint(w)
-	nr, ni := evalCircle(l.Num, c, s)
-	dr, di := evalCircle(l.Den, c, s)
+func (l SampledLoop) At(w float64) complex128 { return l.prepared().At(w) }
+
+// prepared returns the loop ready for many evaluations on the circle.
+func (l SampledLoop) prepared() sampledResponse {
+	return sampledResponse{SampledLoop: l, num: newCirclePoly(l.Num), den: newCirclePoly(l.Den)}
+}
+
+// sampledResponse implements response for a SampledLoop.
+type sampledResponse struct {
+	SampledLoop
+	num, den circlePoly
+}
+
+func (r sampledResponse) At(w float64) complex128 {
+	th := r.angle(w)
+	nr, ni := r.num.eval(th)
+	dr, di := r.den.eval(th)
 	if dr == 0 && di == 0 {
 		return complex(math.Inf(1), math.Inf(1))
 	}
 	return complex(nr, ni) / complex(dr, di)
 }
 
-func (l SampledLoop) point(w float64) point {
-	c, s := l.circlePoint(w)
-	nr, ni := evalCircle(l.Num, c, s)
-	dr, di := evalCircle(l.Den, c, s)
+func (r sampledResponse) point(w float64) point {
+	th := r.angle(w)
+	nr, ni := r.num.eval(th)
+	dr, di := r.den.eval(th)
 	return pointOf(nr, ni, dr, di)
 }
 
@@ -100,9 +159,9 @@ func pointOf(nr, ni, dr, di float64) point {
 
 // ends implements response: |S| and |T| at z = 1 (ω = 0) and z = −1
 // (ω = π/T), NaN where Num and Den both vanish.
-func (l SampledLoop) ends() (s0, t0, sTop, tTop float64) {
+func (r sampledResponse) ends() (s0, t0, sTop, tTop float64) {
 	at := func(z float64) (s, t float64) {
-		n, d := l.Num.EvalReal(z), l.Den.EvalReal(z)
+		n, d := r.valuesAt(z)
 		if n == 0 && d == 0 {
 			return math.NaN(), math.NaN()
 		}
@@ -115,26 +174,42 @@ func (l SampledLoop) ends() (s0, t0, sTop, tTop float64) {
 }
 
 // top implements response.
-func (l SampledLoop) top() float64 { return l.Nyquist() }
+func (r sampledResponse) top() float64 { return r.Nyquist() }
+
+// valuesAt returns Num and Den at z = 1 or z = −1, the constant terms of
+// their Taylor expansions there (summed as in twice the precision).
+func (r sampledResponse) valuesAt(z float64) (n, d float64) {
+	if z > 0 {
+		return r.num.at1[0], r.den.at1[0]
+	}
+	return r.num.atM1[0], r.den.atM1[0]
+}
 
 // endPhaseCrossings implements response: at z = 1 and at z = −1, L is
 // real; where it is finite, non-zero and negative, the phase is −180°.
 // A crossover at z = −1 is where a real closed-loop root would leave the
 // circle through z = −1 if the gain rose (or fell) by the margin.
-func (l SampledLoop) endPhaseCrossings() (zero, top []Crossing) {
+func (r sampledResponse) endPhaseCrossings() (zero, top []Crossing) {
 	at := func(z, w float64) []Crossing {
-		n, d := l.Num.EvalReal(z), l.Den.EvalReal(z)
+		n, d := r.valuesAt(z)
 		if d != 0 && n != 0 && n/d < 0 {
 			return []Crossing{{Freq: w, Margin: math.Abs(d / n)}}
 		}
 		return nil
 	}
-	return at(1, 0), at(-1, l.Nyquist())
+	return at(1, 0), at(-1, r.Nyquist())
 }
+
+// minEquivalent is the smallest magnitude, relative to π/T, of a
+// continuous equivalent that sets the bottom of the scan: a root that the
+// eigenvalues put within rounding of z = 1 (an integrator, 1 − 1e-16)
+// would otherwise stretch the scan over a dozen empty decades.
+const minEquivalent = 1e-9
 
 // equivalentRoots returns the roots of Num, Den and Den + Num mapped to
 // their continuous-time equivalents ln(z)/T (principal branch), leaving
-// out roots at z = 0, which have none.
+// out roots at z = 0, which have none, and those within rounding of z = 1
+// (see minEquivalent).
 func (l SampledLoop) equivalentRoots() []complex128 {
 	var out []complex128
 	for _, p := range []poly.Poly{l.Num, l.Den, l.Characteristic()} {
@@ -143,8 +218,8 @@ func (l SampledLoop) equivalentRoots() []complex128 {
 			continue
 		}
 		for _, z := range r {
-			if z != 0 {
-				out = append(out, cmplx.Log(z)/complex(l.T, 0))
+			if s := cmplx.Log(z) / complex(l.T, 0); z != 0 && cmplx.Abs(s) > minEquivalent*l.Nyquist() {
+				out = append(out, s)
 			}
 		}
 	}
@@ -196,5 +271,5 @@ func (l SampledLoop) Margins() (Margins, error) {
 		return Margins{}, fmt.Errorf("margins: the loop denominator is zero")
 	}
 	lo, hi, roots := l.rangeAndRoots()
-	return measure(l, scanGrid(lo, hi, roots)), nil
+	return measure(l.prepared(), scanGrid(lo, hi, roots)), nil
 }

@@ -262,3 +262,35 @@ func TestSampledMsEvaluatorAgainstMargins(t *testing.T) {
 	}
 	t.Logf("largest relative difference %.2g", worst)
 }
+
+// TestSampledMarginsFastSampling checks a third-order lag sampled a
+// hundred and a thousand times faster than its dynamics, where the roots
+// of the held plant crowd z = 1. A hold acts like half a sample of dead
+// time at low frequency (common practice): the gain crossover and Ms stay
+// those of the continuous loop to O(ωT), and the phase margin drops by
+// ωc·T/2. The held plant's coefficients carry their own rounding, which
+// at z = 1 is about T^−3 times the unit roundoff relative to the values
+// there; an order or a rate much beyond these leaves double precision
+// nothing to work with, in this test and in the stability test alike.
+func TestSampledMarginsFastSampling(t *testing.T) {
+	const k = 4.0
+	den := []float64{1, 3, 3, 1}
+	c := mustMargins(t, Loop{Num: p(k), Den: p(den...)})
+	for _, T := range []float64{1e-2, 1e-3} {
+		nz, dz := held(t, []float64{k}, den, T)
+		m, err := SampledLoop{Num: nz, Den: dz, T: T}.Margins()
+		if err != nil {
+			t.Fatal(err)
+		}
+		// O(ωT) differences: 2ωT relative, ω about √3.
+		check(t, "gain crossover", m.GainCrossover, c.GainCrossover, 4*T)
+		check(t, "Ms", m.Ms, c.Ms, 4*T)
+		check(t, "gain margin", m.GainMargin, c.GainMargin, 4*T)
+		drop := c.GainCrossover * T / 2 * 180 / math.Pi
+		// The half-sample rule holds to O((ωc·T)²) in the phase: 0.01 of
+		// the drop, and the crossover moves by O(T).
+		if d := c.PhaseMargin - m.PhaseMargin; math.Abs(d-drop) > 0.02*drop {
+			t.Errorf("T = %g: phase margin drops by %.6g°, want ωc·T/2 = %.6g°", T, d, drop)
+		}
+	}
+}

@@ -5,22 +5,27 @@ import (
 	"math"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/unitcircle"
 )
 
 // SampledMsEvaluator computes Ms = max over 0 ≤ ω ≤ π/T of
 // |1/(1 + L(e^(jωT)))| for many loops sampled every T on one fixed
-// frequency grid, allocating nothing per call: the sampled counterpart of
-// MsEvaluator, for Ms over the maps of sampled loops.
+// frequency grid, allocating nothing per call for loops of up to
+// stackLen coefficients: the sampled counterpart of MsEvaluator, for Ms
+// over the maps of sampled loops.
 //
-// Method: for every grid frequency ω_i it stores the unit-circle weights
-// cos(k·ω_i·T) and sin(k·ω_i·T), each from math.Sincos of its own angle
-// (no recurrence, so no error builds up with k), so that
-// p(e^(jω_iT)) = Σ p_k·cos(kω_iT) + j·Σ p_k·sin(kω_iT): two multiply-adds
-// per coefficient. |S|² = |Den|²/|Den + Num|² is compared on the grid
-// without square roots; the largest grid value is refined by Steps
-// golden-section steps in ln ω on the bracket of its two neighbours
-// (Horner's rule on the circle), and compared with the exact values at
-// z = 1 (ω = 0) and z = −1 (ω = π/T).
+// Method: every grid frequency ω_i stores the real and imaginary parts
+// of the powers b^k of the point at which its zone of the circle is
+// expanded (see circleBase): z = e^(jθ), δ = z − 1 = 2·sin(θ/2)·e^(j(θ+π)/2)
+// or ε = z + 1 = 2·cos(θ/2)·e^(jθ/2), θ = ω_i·T, each power from its
+// magnitude and angle (no recurrence, so no error builds up with k).
+// Per call Num and Den are expanded about z = 1 and z = −1
+// (unitcircle.Shift), and p at ω_i is two multiply-adds per coefficient
+// of the zone's expansion, which keeps the digits a loop sampled fast
+// would lose near z = 1. |S|² = |Den|²/|Den + Num|² is compared on the
+// grid without square roots; the largest grid value is refined by Steps
+// golden-section steps in ln ω on the bracket of its two neighbours, and
+// compared with the exact values at z = 1 (ω = 0) and z = −1 (ω = π/T).
 //
 // Its errors are those of MsEvaluator: one-sided (it never reports more
 // than the supremum, up to rounding), small for peaks inside the grid and
@@ -30,10 +35,15 @@ import (
 type SampledMsEvaluator struct {
 	T      float64
 	w, lw  []float64
-	cs     []float64 // len(w)×2·stride: cos and sin of k·ω_i·T, interleaved
+	zone   []int8
+	pw     []float64 // len(w)×2·stride: real and imaginary parts of b^k, interleaved
 	stride int
 	steps  int
 }
+
+// stackLen is the most coefficients for which Ms keeps its expansions on
+// the stack; longer loops allocate them.
+const stackLen = 32
 
 // NewSampledMsEvaluator returns an evaluator for loops sampled every T
 // on a logarithmic grid from wmin to π/T (0 < wmin < π/T) with perDecade
@@ -56,13 +66,30 @@ func NewSampledMsEvaluator(T, wmin float64, perDecade, maxLen, steps int, roots 
 	if len(w) < 3 {
 		w = logGrid(wmin, wmax, 3)
 	}
-	e := &SampledMsEvaluator{T: T, w: w, lw: make([]float64, len(w)), cs: make([]float64, 2*maxLen*len(w)), stride: maxLen, steps: steps}
+	e := &SampledMsEvaluator{T: T, w: w, lw: make([]float64, len(w)), zone: make([]int8, len(w)), pw: make([]float64, 2*maxLen*len(w)), stride: maxLen, steps: steps}
+	l := SampledLoop{T: T}
 	for i, x := range w {
 		e.lw[i] = math.Log(x)
-		row := e.cs[2*maxLen*i : 2*maxLen*(i+1)]
+		th := l.angle(x)
+		zone, _, _ := circleBase(th)
+		e.zone[i] = int8(zone)
+		// The base as magnitude and angle: z = e^(jθ), δ and ε as above.
+		mag, arg := 1.0, th
+		switch zone {
+		case zoneOne:
+			mag, arg = 2*math.Sin(th/2), (th+math.Pi)/2
+		case zoneMinusOne:
+			mag, arg = 2*math.Cos(th/2), th/2
+			if th == math.Pi {
+				mag = 0
+			}
+		}
+		row := e.pw[2*maxLen*i : 2*maxLen*(i+1)]
+		m := 1.0
 		for k := 0; k < maxLen; k++ {
-			s, c := math.Sincos(float64(k) * x * T)
-			row[2*k], row[2*k+1] = c, s
+			s, c := math.Sincos(float64(k) * arg)
+			row[2*k], row[2*k+1] = m*c, m*s
+			m *= mag
 		}
 	}
 	return e, nil
@@ -74,21 +101,41 @@ func (e *SampledMsEvaluator) Len() int { return len(e.w) }
 // Ms returns max over 0 ≤ ω ≤ π/T of |Den/(Den + Num)| on the unit
 // circle for the sampled loop L = num/den (ascending powers of z); +Inf
 // when the closed loop has a pole on the grid or at z = ±1 exactly. It
-// allocates nothing. It panics if num or den has more coefficients than
-// the evaluator was built for.
+// allocates nothing for loops of up to stackLen coefficients. It panics
+// if num or den has more coefficients than the evaluator was built for.
 func (e *SampledMsEvaluator) Ms(num, den poly.Poly) float64 {
 	if len(num) > e.stride || len(den) > e.stride {
 		panic(fmt.Sprintf("margins: Ms called with %d and %d coefficients, evaluator built for %d", len(num), len(den), e.stride))
 	}
+	var stack [4][stackLen]float64
+	buf := func(i, n int) poly.Poly {
+		if n <= stackLen {
+			return stack[i][:n]
+		}
+		return make(poly.Poly, n)
+	}
+	cn := circlePoly{p: num, at1: buf(0, len(num)), atM1: buf(1, len(num))}
+	cd := circlePoly{p: den, at1: buf(2, len(den)), atM1: buf(3, len(den))}
+	unitcircle.Shift(cn.at1, num, 1)
+	unitcircle.Shift(cn.atM1, num, -1)
+	unitcircle.Shift(cd.at1, den, 1)
+	unitcircle.Shift(cd.atM1, den, -1)
 	best, bi := -1.0, 0
 	for i := range e.w {
-		row := e.cs[2*e.stride*i : 2*e.stride*(i+1)]
+		row := e.pw[2*e.stride*i : 2*e.stride*(i+1)]
+		qn, qd := cn.p, cd.p
+		switch e.zone[i] {
+		case zoneOne:
+			qn, qd = cn.at1, cd.at1
+		case zoneMinusOne:
+			qn, qd = cn.atM1, cd.atM1
+		}
 		var nr, ni, dr, di float64
-		for k, v := range num {
+		for k, v := range qn {
 			nr += v * row[2*k]
 			ni += v * row[2*k+1]
 		}
-		for k, v := range den {
+		for k, v := range qd {
 			dr += v * row[2*k]
 			di += v * row[2*k+1]
 		}
@@ -99,14 +146,19 @@ func (e *SampledMsEvaluator) Ms(num, den poly.Poly) float64 {
 	}
 	ms := math.Sqrt(best)
 	if e.steps > 0 {
-		l := SampledLoop{Num: num, Den: den, T: e.T}
-		f := func(lw float64) float64 { return l.point(math.Exp(lw)).s }
+		l := SampledLoop{T: e.T}
+		f := func(lw float64) float64 {
+			th := l.angle(math.Exp(lw))
+			nr, ni := cn.eval(th)
+			dr, di := cd.eval(th)
+			return math.Hypot(dr, di) / math.Hypot(dr+nr, di+ni)
+		}
 		if _, v := goldenMax(f, e.lw[max(bi-1, 0)], e.lw[min(bi+1, len(e.w)-1)], 0, e.steps); v > ms {
 			ms = v
 		}
 	}
-	for _, z := range [2]float64{1, -1} {
-		n, d := num.EvalReal(z), den.EvalReal(z)
+	for _, ends := range [2][2]float64{{cn.at1[0], cd.at1[0]}, {cn.atM1[0], cd.atM1[0]}} {
+		n, d := ends[0], ends[1]
 		if n == 0 && d == 0 {
 			continue
 		}
