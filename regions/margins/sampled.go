@@ -67,9 +67,9 @@ func newCirclePoly(p poly.Poly) circlePoly {
 
 // Zones of the circle, by which expansion a point is evaluated.
 const (
-	zoneDirect = iota // powers of z
-	zoneOne           // powers of δ = z − 1, for θ < π/3
-	zoneMinusOne      // powers of ε = z + 1, for θ > 2π/3
+	zoneDirect   = iota // powers of z
+	zoneOne             // powers of δ = z − 1, for θ < π/3
+	zoneMinusOne        // powers of ε = z + 1, for θ > 2π/3
 )
 
 // circleBase returns the zone of the angle θ ∈ [0, π] and the point of
