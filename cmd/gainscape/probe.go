@@ -69,6 +69,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.timeUnit, "time-unit", "s", "unit of time of s")
 	fs.Float64Var(&f.sample, "sample", 0, "sample time of a digital controller (0: continuous)")
 	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
+	fs.Float64Var(&f.prewarp, "prewarp", 0, "pre-warp frequency of a digital lead or lag (0: none)")
 	fs.StringVar(&f.x, "x", "", "first parameter of the fragility plane")
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")

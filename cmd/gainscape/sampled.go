@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"gainscape/regions/export"
+	"gainscape/regions/stability"
 	"gainscape/regions/study"
 )
 
@@ -125,4 +126,61 @@ func circleEdgeText(n *export.NearestEdge, u study.Units) string {
 		return fmt.Sprintf("a real root crosses the unit circle at z = −1 (ω = π/T = %.4g %s)", float64(n.Omega), u.Freq())
 	}
 	return "a root passes through infinity"
+}
+
+// unstableWhere, boundaryWhere and beyondWhere name the sides of the
+// stability boundary of a map's loop in summaries.
+func unstableWhere(res *study.MapResult) string {
+	if res.Sampled != nil {
+		return "outside the unit circle"
+	}
+	return "in the right half plane"
+}
+
+func boundaryWhere(res *study.MapResult) string {
+	if res.Sampled != nil {
+		return "on the unit circle"
+	}
+	return "on the imaginary axis"
+}
+
+func beyondWhere(res *study.MapResult) string {
+	if res.Sampled != nil {
+		return "outside it"
+	}
+	return "to its right"
+}
+
+// edgeCounts counts the edge curves of each kind, in words.
+func edgeCounts(res *study.MapResult) string {
+	if res.Sampled == nil {
+		return fmt.Sprintf("%d complex-pair, %d real-root, %d through-infinity curves",
+			res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Infinite])
+	}
+	return fmt.Sprintf("%d complex-pair (e^(±jωT)), %d real-root at z = 1, %d real-root at z = −1 (alternating, ω = π/T = %.4g %s), %d through-infinity curves",
+		res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Alternating], res.Sampled.Nyquist(), res.Units.Freq(), res.Edges[stability.Infinite])
+}
+
+// printCompare writes the gain limit along the x axis of the map's own
+// loop and of every compared sample time.
+func printCompare(w io.Writer, res *study.MapResult) {
+	if len(res.Compare) == 0 {
+		return
+	}
+	x, y := res.X.Param, res.Y.Param
+	for i, e := range res.Compare {
+		head := "compared"
+		if i > 0 {
+			head = ""
+		}
+		at := fmt.Sprintf("%s = %.4g", y, e.LimitY)
+		if e.Above {
+			at = fmt.Sprintf("%s just above %.4g (the row %s = %.4g itself is marginal)", y, res.Y.Min, y, res.Y.Min)
+		}
+		label := e.Label(res.Units)
+		if e.Own {
+			label += " (this map)"
+		}
+		fmt.Fprintf(w, "%-11s %-22s stable for %s at %s\n", head, label+":", e.LimitText(x, res.Units), at)
+	}
 }

@@ -206,11 +206,11 @@ func (r sampledResponse) endPhaseCrossings() (zero, top []Crossing) {
 // would otherwise stretch the scan over a dozen empty decades.
 const minEquivalent = 1e-9
 
-// equivalentRoots returns the roots of Num, Den and Den + Num mapped to
+// EquivalentRoots returns the roots of Num, Den and Den + Num mapped to
 // their continuous-time equivalents ln(z)/T (principal branch), leaving
 // out roots at z = 0, which have none, and those within rounding of z = 1
 // (see minEquivalent).
-func (l SampledLoop) equivalentRoots() []complex128 {
+func (l SampledLoop) EquivalentRoots() []complex128 {
 	var out []complex128
 	for _, p := range []poly.Poly{l.Num, l.Den, l.Characteristic()} {
 		r, err := p.Trim(0).Roots()
@@ -237,7 +237,7 @@ func (l SampledLoop) FrequencyRange() (lo, hi float64) {
 
 func (l SampledLoop) rangeAndRoots() (lo, hi float64, roots []complex128) {
 	hi = l.Nyquist()
-	roots = l.equivalentRoots()
+	roots = l.EquivalentRoots()
 	lo = hi
 	for _, r := range roots {
 		if m := cmplx.Abs(r); m > 0 && m < lo {

@@ -245,7 +245,7 @@ func TestSampledMsEvaluatorAgainstMargins(t *testing.T) {
 			t.Fatal(err)
 		}
 		lo, _ := l.FrequencyRange()
-		ev, err := NewSampledMsEvaluator(T, lo, DefaultMsPerDecade, len(dz), DefaultMsSteps, l.equivalentRoots())
+		ev, err := NewSampledMsEvaluator(T, lo, DefaultMsPerDecade, len(dz), DefaultMsSteps, l.EquivalentRoots())
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -7,6 +7,9 @@ import (
 
 	"gainscape/regions/family"
 	"gainscape/regions/loop"
+	"gainscape/regions/margins"
+	"gainscape/regions/overlay"
+	"gainscape/regions/plane"
 	"gainscape/regions/stability"
 )
 
@@ -115,4 +118,28 @@ func (ls LoopSpec) digital(fam family.Family) (family.Family, error) {
 		return nil, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
 	}
 	return d, nil
+}
+
+// msOverlay returns the fast Ms of the map's nodes: an evaluator whose
+// frequency grid covers the loop at the centre of the window, on
+// 0 ≤ ω ≤ π/T for a sampled loop.
+func msOverlay(s plane.Setup) (overlay.Sensitivity, error) {
+	T := s.Plant.Sample
+	if T <= 0 {
+		ev, err := msEvaluator(s)
+		if err != nil {
+			return nil, err
+		}
+		return ev.Ms, nil
+	}
+	centre := s.At(0.5*(s.X.Min+s.X.Max), 0.5*(s.Y.Min+s.Y.Max))
+	num, den := centre.Open()
+	lo, _ := margins.SampledLoop{Num: num, Den: den, T: T}.FrequencyRange()
+	// The plant's own resonances are the same at every node.
+	roots := margins.SampledLoop{Num: centre.Plant.Num, Den: centre.Plant.Den, T: T}.EquivalentRoots()
+	ev, err := margins.NewSampledMsEvaluator(T, lo, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots)
+	if err != nil {
+		return nil, err
+	}
+	return ev.Ms, nil
 }
