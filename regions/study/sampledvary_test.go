@@ -1,6 +1,7 @@
 package study
 
 import (
+	"context"
 	"math"
 	"testing"
 
@@ -108,5 +109,74 @@ func TestVaryFirstOrderAlternating(t *testing.T) {
 		if rep.Doc.SampleTime != T || rep.Doc.Integral != "backward" {
 			t.Fatalf("T = %g: document says sample time %g, integral %q", T, rep.Doc.SampleTime, rep.Doc.Integral)
 		}
+	}
+}
+
+// TestVarySampledEdgeCases covers gains near the limits of scale and an
+// open-loop unstable plant, each derived by hand in this test from the
+// one root of a held first-order plant (see TestVaryFirstOrderAlternating):
+// g/(s + 1) puts it at a − K·g(1 − a), so the range is scaled by 1/g;
+// 1/(s − 1) is (e^T − 1)/(z − e^T), with the root e^T − K(e^T − 1) inside
+// for 1 < K < coth(T/2), entering through z = 1.
+func TestVarySampledEdgeCases(t *testing.T) {
+	const T = 0.2
+	c := 1 / math.Tanh(T/2)
+	cases := []struct {
+		name, plant string
+		lo, hi      float64 // the window
+		wantLo      float64
+		wantHi      float64
+	}{
+		{"tiny plant gain", "1e-12/(s+1)", -1e14, 1e14, -1e12, c * 1e12},
+		{"huge plant gain", "1e12/(s+1)", -1e-10, 1e-10, -1e-12, c * 1e-12},
+		{"open-loop unstable", "1/(s-1)", -5, 50, 1, c},
+	}
+	for _, cs := range cases {
+		t.Run(cs.name, func(t *testing.T) {
+			rep, err := Vary(VaryRequest{Loop: LoopSpec{Plant: cs.plant, Controller: "p", Sample: T}, Range: spec.Axis{Param: "kp", Min: cs.lo, Max: cs.hi}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(rep.Doc.Intervals) != 1 {
+				t.Fatalf("%d intervals, want 1", len(rep.Doc.Intervals))
+			}
+			iv := rep.Doc.Intervals[0]
+			// 1e-9 relative: intervals.Accuracy with a margin.
+			if math.Abs(iv.Lo-cs.wantLo) > 1e-9*math.Abs(cs.wantLo) || math.Abs(iv.Hi-cs.wantHi) > 1e-9*cs.wantHi ||
+				iv.LoKind != "real" || iv.HiKind != "alternating" {
+				t.Fatalf("stable for %.12g < K < %.12g (%s to %s), want %.12g < K < %.12g (real to alternating)", iv.Lo, iv.Hi, iv.LoKind, iv.HiKind, cs.wantLo, cs.wantHi)
+			}
+		})
+	}
+}
+
+// TestProbeSampledOgata probes K = 1 on K/(s(s+1)) held at T = 1 s: the
+// gain margin is the gain limit of ogataLimit (K. Ogata, Discrete-Time
+// Control Systems, from memory: 2.3925 from rounded coefficients), at the
+// crossing frequency there; the poles are the roots of
+// z² − z + (1 − 2/e)·… derived by hand: P(z) = z² + (a − 1)·z... with
+// a = e^(−1): b1 = (T − 1 + a) − (1 + a) = −1, b0 = a + 1 − 2a = 1 − a,
+// so |z|² = 1 − a and the decay rate is −ln(1 − a)/2.
+func TestProbeSampledOgata(t *testing.T) {
+	rep, err := Probe(context.Background(), ProbeRequest{Loop: LoopSpec{Plant: "1/(s*(s+1))", Controller: "p", Sample: 1, Fixed: []spec.Value{{Param: "kp", V: 1}}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := rep.Doc
+	k, _, omega := ogataLimit(1)
+	a := math.Exp(-1)
+	switch {
+	case !d.Stable || d.RHP != 0 || d.CountFrom != "Schur–Cohn recursion" || len(d.SignArray) != 3:
+		t.Fatalf("verdict %v (%d outside) by %q with %d rows", d.Stable, d.RHP, d.CountFrom, len(d.SignArray))
+	case math.Abs(float64(d.GainMargin)-k) > 1e-9*k || math.Abs(float64(d.PhaseCrossover)-omega) > 1e-8*omega:
+		t.Fatalf("gain margin %.10g at ω %.10g, want %.10g at %.10g", float64(d.GainMargin), float64(d.PhaseCrossover), k, omega)
+	case d.RootRadius == nil || math.Abs(*d.RootRadius-math.Sqrt(1-a)) > 1e-14:
+		t.Fatalf("largest |z| %v, want √(1 − 1/e) = %g", d.RootRadius, math.Sqrt(1-a))
+	case math.Abs(d.DecayRate+math.Log(1-a)/2) > 1e-14:
+		t.Fatalf("decay rate %g, want −ln(1 − 1/e)/2 = %g", d.DecayRate, -math.Log(1-a)/2)
+	case d.Ultimate == nil || math.Abs(d.Ultimate.Ku-k) > 1e-10*k || d.Ultimate.Kind != "complex" || d.Ultimate.Method == "":
+		t.Fatalf("ultimate %+v, want Ku = %g from a pair", d.Ultimate, k)
+	case math.Abs(float64(d.MsFreq)) > math.Pi || d.SampleTime != 1:
+		t.Fatalf("Ms at ω = %g beyond π/T, sample time %g", float64(d.MsFreq), d.SampleTime)
 	}
 }
