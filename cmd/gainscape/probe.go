@@ -29,6 +29,17 @@ with the classic tuning rules computed from them.
 With --vary, prints instead every interval of one parameter in which the loop
 is stable, with how it loses stability at each end.
 
+With --sample T the loop is sampled (see "gainscape help map"): the report
+shows the unit-circle test's own table (the Schur–Cohn recursion, or the
+sign array of the bilinear image Q(w) in its special cases), the roots
+outside and on the unit circle, the poles in z with their continuous
+equivalents ln(z)/T, the largest |z| and the decay rate −ln|z|/T; margins,
+Ms and Mt are taken on z = e^(jωT) for 0 ≤ ω ≤ π/T, and the ultimate gain
+where the proportional-only loop's roots cross the circle (a pair, or a real
+root at z = −1 with Tu = 2T). The tuning rules, made for continuous
+controllers, then set the digital controller of the same structure and are
+checked with the unit-circle test.
+
 Flags:
   --plant EXPR | --num LIST --den LIST   the plant, as for "gainscape map"
                         --plant "1/(s+1)^3"
@@ -39,6 +50,9 @@ Flags:
   --x NAME, --y NAME  the plane for the distance to the nearest edge
                       (default: the first two parameters of the family)
                         --x kp --y ki
+  --sample T, --integral RULE, --prewarp W
+                      a digital controller, as for "gainscape map"
+                        --sample 0.5 --integral trapezoid
   --vary NAME=MIN:MAX find the stable intervals of one parameter instead
                         --vary kp=0:100
   --json              print one JSON object instead of text
@@ -48,6 +62,7 @@ Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
   gainscape probe --plant "1/(s*(s+1)*(s+2))" --ctrl p --vary kp=0:100
   gainscape probe --num "3" --den "0.16, 1.3, 2.45, 2.5, 1" --ctrl pi --set kp=1,ki=0.3 --json
+  gainscape probe --plant "1/(s*(s+1))" --ctrl p --sample 1 --vary kp=0:10
 `
 
 type probeFlags struct {
@@ -257,7 +272,10 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 	if f.json {
 		return export.Write(w, rep.Doc)
 	}
-	fmt.Fprintf(w, "plant        G(s) = %s\n", rep.Doc.Plant)
+	fmt.Fprintf(w, "plant        %s\n", plantText(rep.Doc.Plant))
+	if rep.Sampled != nil {
+		fmt.Fprintf(w, "sampling     %s\n", rep.Sampled.Text(study.Units{Time: ls.TimeUnit}))
+	}
 	fmt.Fprintf(w, "controller   %s", rep.Formula)
 	if fx := study.ValuesText(rep.Fixed); fx != "" {
 		fmt.Fprintf(w, " with %s", fx)

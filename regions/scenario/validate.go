@@ -125,7 +125,11 @@ func (o Overlays) validate(v *validator) {
 	if len(o.CompareSamples) > MaxCompareSamples {
 		v.add("overlays.compare_samples", "%d sample times; a map compares at most %d", len(o.CompareSamples), MaxCompareSamples)
 	} else {
-		v.levels("overlays.compare_samples", o.CompareSamples, "a sample time is a positive number", func(x float64) bool { return x > 0 })
+		for _, T := range o.CompareSamples {
+			if !finite(T) || T <= 0 {
+				v.add("overlays.compare_samples", "%s: %s is not a sample time, which is a positive number", formatList(o.CompareSamples), formatNumber(T))
+			}
+		}
 	}
 	if !finite(o.MsBound) || (o.MsBound != 0 && o.MsBound < 1) {
 		v.add("overlays.ms_bound", "%s: expected 0 (no limit) or a bound of at least 1, since Ms is at least 1", formatNumber(o.MsBound))

@@ -9,6 +9,7 @@ import (
 
 	"gainscape/regions/boundary"
 	"gainscape/regions/export"
+	"gainscape/regions/expr"
 	"gainscape/regions/grid"
 	"gainscape/regions/intervals"
 	"gainscape/regions/loop"
@@ -88,6 +89,12 @@ func (j *MapJob) compareSamples(ctx context.Context, opt Options) ([]SampleEdges
 	if len(ts) == 0 {
 		return nil, nil
 	}
+	if j.spec.Plant != "" {
+		if _, err := expr.ParsePlant(j.spec.Plant); err != nil {
+			return nil, inputErr("--compare-samples", "overlays.compare_samples", strings.Join(formatAll(ts), ","),
+				"a comparison needs the plant in s: a plant given in z holds for its own sample time only")
+		}
+	}
 	own := j.setup.Plant.Sample
 	ts = append(ts, 0, own)
 	slices.Sort(ts)
@@ -120,10 +127,9 @@ func (j *MapJob) edgesAt(ctx context.Context, T float64, opt Options) (SampleEdg
 	if T == 0 {
 		ls.Integral, ls.Prewarp = "", 0
 	}
-	value := formatAll(j.sc.Overlays.CompareSamples)
 	l, err := ls.Build()
 	if err != nil {
-		return SampleEdges{}, inputErr("--compare-samples", "overlays.compare_samples", strings.Join(value, ","), "the loop sampled every %g: %v (a comparison needs the plant in s)", T, err)
+		return SampleEdges{}, inputErr("--compare-samples", "overlays.compare_samples", strings.Join(formatAll(j.sc.Overlays.CompareSamples), ","), "the loop sampled every %g: %v", T, err)
 	}
 	s := j.setup
 	setup, err := plane.NewSetup(l, s.X, s.Y)
