@@ -123,14 +123,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
 	fmt.Fprintln(w, "Routh sign array (first column decides):")
 	for _, row := range r.SignArray {
-		note := ""
-		switch {
-		case row.Auxiliary:
-			note = "  ← all-zero row: replaced by the derivative of the auxiliary polynomial"
-		case row.Epsilon:
-			note = "  ← zero first entry: replaced by ε → 0+ (ε rule)"
-		}
-		fmt.Fprintf(w, "  s^%-2d │ %s%s\n", row.Power, strings.Join(pad(row.Entries, 12), " "), note)
+		fmt.Fprintf(w, "  s^%-2d │ %s%s\n", row.Power, strings.Join(pad(row.Entries, 12), " "), rowNote(row))
 	}
 	if r.Aux != nil {
 		fmt.Fprintf(w, "  auxiliary polynomial A(s) = %s\n", polyText(r.Aux))
@@ -140,18 +133,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  the count below is confirmed from the eigenvalues, all clear of the imaginary axis")
 	}
 	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
-	if len(r.JWOmegas) > 0 {
-		fmt.Fprintf(w, " (ω = %s %s)", floatsText(r.JWOmegas), u.Freq())
-	}
-	if r.DegreeDrop > 0 {
-		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
-	}
-	fmt.Fprintln(w)
-	verdict := "STABLE"
-	if !r.Stable {
-		verdict = "NOT STABLE"
-	}
-	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
+	printVerdict(w, r, "ω", u)
 
 	fmt.Fprintln(w, "Closed-loop poles:")
 	for _, p := range r.Poles {
@@ -166,6 +148,35 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	}
 	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
 	printRobustness(w, rep)
+}
+
+// rowNote explains a special row of a sign array.
+func rowNote(row export.SignRow) string {
+	switch {
+	case row.Auxiliary:
+		return "  ← all-zero row: replaced by the derivative of the auxiliary polynomial"
+	case row.Epsilon:
+		return "  ← zero first entry: replaced by ε → 0+ (ε rule)"
+	}
+	return ""
+}
+
+// printVerdict ends the line of root counts with the frequencies of the
+// roots on the boundary (named omega) and the roots gone to infinity, and
+// writes the verdict.
+func printVerdict(w io.Writer, r *export.Probe, omega string, u study.Units) {
+	if len(r.JWOmegas) > 0 {
+		fmt.Fprintf(w, " (%s = %s %s)", omega, floatsText(r.JWOmegas), u.Freq())
+	}
+	if r.DegreeDrop > 0 {
+		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
+	}
+	fmt.Fprintln(w)
+	verdict := "STABLE"
+	if !r.Stable {
+		verdict = "NOT STABLE"
+	}
+	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
 }
 
 // printRobustness writes the margins, Ms, the nearest edge and the

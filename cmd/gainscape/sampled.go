@@ -28,14 +28,7 @@ func printSampledProbe(w io.Writer, rep *study.ProbeReport) {
 		if label == "" {
 			label = fmt.Sprintf("w^%d", row.Power)
 		}
-		note := ""
-		switch {
-		case row.Auxiliary:
-			note = "  ← all-zero row: replaced by the derivative of the auxiliary polynomial"
-		case row.Epsilon:
-			note = "  ← zero first entry: replaced by ε → 0+ (ε rule)"
-		}
-		fmt.Fprintf(w, "  %s\n    │ %s%s\n", label, strings.Join(pad(row.Entries, 12), " "), note)
+		fmt.Fprintf(w, "  %s\n    │ %s%s\n", label, strings.Join(pad(row.Entries, 12), " "), rowNote(row))
 	}
 	for _, n := range r.TestNotes {
 		fmt.Fprintf(w, "  (%s)\n", n)
@@ -44,18 +37,7 @@ func printSampledProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintf(w, "  auxiliary polynomial mapped back to z: %s\n", zText(r.Aux))
 	}
 	fmt.Fprintf(w, "  roots outside the unit circle: %d; on it: %d", r.RHP, r.JW)
-	if len(r.JWOmegas) > 0 {
-		fmt.Fprintf(w, " (ω = θ/T = %s %s)", floatsText(r.JWOmegas), u.Freq())
-	}
-	if r.DegreeDrop > 0 {
-		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
-	}
-	fmt.Fprintln(w)
-	verdict := "STABLE"
-	if !r.Stable {
-		verdict = "NOT STABLE"
-	}
-	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
+	printVerdict(w, r, "ω = θ/T", u)
 
 	fmt.Fprintln(w, "Closed-loop poles in z, largest |z| first, with their continuous equivalents s = ln(z)/T:")
 	for i, p := range r.Poles {

@@ -55,21 +55,19 @@ func NewSampledMsEvaluator(T, wmin float64, perDecade, maxLen, steps int, roots 
 	if !(T > 0) || math.IsInf(T, 1) {
 		return nil, fmt.Errorf("margins: sample time %g is not positive and finite", T)
 	}
-	wmax := math.Pi / T
-	if !(wmin > 0 && wmin < wmax) {
-		return nil, fmt.Errorf("margins: sampled Ms grid needs 0 < wmin < π/T = %g, have %g", wmax, wmin)
+	// The grid is the continuous evaluator's, up to π/T: the same checks,
+	// the same enrichment.
+	grid, err := NewMsEvaluatorNear(wmin, math.Pi/T, perDecade, 1, 0, roots)
+	if err != nil {
+		return nil, err
 	}
-	if perDecade < 1 || maxLen < 1 || steps < 0 {
-		return nil, fmt.Errorf("margins: Ms grid needs perDecade ≥ 1, maxLen ≥ 1, steps ≥ 0")
+	if maxLen < 1 || steps < 0 {
+		return nil, fmt.Errorf("margins: Ms grid needs maxLen ≥ 1, steps ≥ 0")
 	}
-	w := enrichedGrid(wmin, wmax, perDecade, roots)
-	if len(w) < 3 {
-		w = logGrid(wmin, wmax, 3)
-	}
-	e := &SampledMsEvaluator{T: T, w: w, lw: make([]float64, len(w)), zone: make([]int8, len(w)), pw: make([]float64, 2*maxLen*len(w)), stride: maxLen, steps: steps}
+	w := grid.w
+	e := &SampledMsEvaluator{T: T, w: w, lw: grid.lw, zone: make([]int8, len(w)), pw: make([]float64, 2*maxLen*len(w)), stride: maxLen, steps: steps}
 	l := SampledLoop{T: T}
 	for i, x := range w {
-		e.lw[i] = math.Log(x)
 		th := l.angle(x)
 		zone, _, _ := circleBase(th)
 		e.zone[i] = int8(zone)
