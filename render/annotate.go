@@ -3,6 +3,7 @@ package render
 import (
 	"math"
 	"strconv"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -157,8 +158,9 @@ func (a annotations) isoTexts(pl *placer, trX, trY transform) []isoText {
 }
 
 // placeOmegaLabels writes ω along every complex-pair edge at intervals
-// of omegaSpacing (at least once where there is room), and "ω=0" once on
-// every real-root edge.
+// of omegaSpacing (at least once where there is room), "ω=0" once on
+// every real-root edge, and "ω=π/T=…" once on every edge where a real
+// root of a sampled loop crosses z = −1.
 func placeOmegaLabels(pl *placer, curves []curvePath, unit string) []drawnLabel {
 	style := centredStyle(labelSize, inkColour)
 	formatOmega := func(w float64) string { return omegaText(w, unit) }
@@ -187,6 +189,19 @@ func placeOmegaLabels(pl *placer, curves []curvePath, unit string) []drawnLabel 
 				sites = pl.along(path, omegaStep, inf, omegaStep, zeroBox)
 			}
 			labels = append(labels, toLabels(sites, style, func(float64) string { return formatOmega(0) })...)
+		case stability.Alternating:
+			nyquist := func(w float64) string { return strings.Replace(formatOmega(w), "ω=", "ω=π/T=", 1) }
+			nbox := func(pt vg.Point, w float64) (vg.Rectangle, bool) {
+				if !finite(w) {
+					return vg.Rectangle{}, false
+				}
+				return labelBox(style, nyquist(w), pt), true
+			}
+			sites := pl.along(path, pathLength(path)/2, inf, omegaStep, nbox)
+			if len(sites) == 0 {
+				sites = pl.along(path, omegaStep, inf, omegaStep, nbox)
+			}
+			labels = append(labels, toLabels(sites, style, nyquist)...)
 		}
 	}
 	return labels

@@ -52,6 +52,15 @@ type Figure struct {
 	Contours []ContourSet
 	// Marks are design points drawn as a symbol with a label.
 	Marks []Mark
+	// Sample is the sample time of a sampled-data loop, 0 for a
+	// continuous-time one: the legend then speaks of the unit circle, and
+	// edges where a real root crosses z = −1 are labelled ω = π/T.
+	Sample float64
+	// Compare are edge sets of the same window drawn over the map, each
+	// in its own style (such as the loop at other sample times), and
+	// OwnLabel names the map's own loop beside them in the legend.
+	Compare  []EdgeSet
+	OwnLabel string
 	// Width and Height are the image size; zero means 16 cm by 12 cm.
 	Width, Height vg.Length
 	// DPI is the resolution of PNG output; zero means 200 dots per inch.

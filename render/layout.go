@@ -206,6 +206,7 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*pl
 			lines = append(lines, plotOnly{&plotter.Line{XYs: xys, LineStyle: curveStyle(cv.Kind)}})
 		}
 	}
+	p.Add(compareLines(f)...)
 	p.Add(halos...)
 	p.Add(lines...)
 	p.Add(ann)

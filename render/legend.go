@@ -65,12 +65,16 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 			continue
 		}
 		regions.entries = append(regions.entries, legendEntry{
-			countText(k, k == distinctCounts && maxCount > distinctCounts),
+			countText(k, k == distinctCounts && maxCount > distinctCounts, f.Sample > 0),
 			[]plot.Thumbnailer{swatch{fill: rc.count(k)}},
 		})
 	}
 	if hasMarginal(f.Map) {
-		regions.entries = append(regions.entries, legendEntry{"marginal (root on axis)", []plot.Thumbnailer{swatch{fill: rc.marginal}}})
+		text := "marginal (root on axis)"
+		if f.Sample > 0 {
+			text = "marginal (root on circle)"
+		}
+		regions.entries = append(regions.entries, legendEntry{text, []plot.Thumbnailer{swatch{fill: rc.marginal}}})
 	}
 	if present[grid.Undecided] {
 		regions.entries = append(regions.entries, legendEntry{"undecided", []plot.Thumbnailer{swatch{fill: rc.undecided, hatched: true}}})
@@ -86,11 +90,14 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	edges := legendSection{heading: "Edge"}
 	for _, k := range kindOrder {
 		if kinds[k] {
-			edges.entries = append(edges.entries, legendEntry{kindNames[k], []plot.Thumbnailer{lineThumb{haloStyle(), curveStyle(k)}}})
+			edges.entries = append(edges.entries, legendEntry{kindName(k, f.Sample > 0), []plot.Thumbnailer{lineThumb{haloStyle(), curveStyle(k)}}})
 		}
 	}
 	if len(edges.entries) > 0 {
 		out = append(out, edges)
+	}
+	if cmp := compareSection(f); len(cmp.entries) > 0 {
+		out = append(out, cmp)
 	}
 
 	iso := legendSection{heading: "Iso-lines"}
@@ -109,15 +116,20 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	return out
 }
 
-// countText is the legend text for k right-half-plane roots.
-func countText(k int, orMore bool) string {
+// countText is the legend text for k unstable roots: in the right half
+// plane, or outside the unit circle for a sampled map.
+func countText(k int, orMore, sampled bool) string {
+	where := " in RHP"
+	if sampled {
+		where = " outside circle"
+	}
 	switch {
 	case orMore:
-		return strconv.Itoa(k) + " or more roots in RHP"
+		return strconv.Itoa(k) + " or more roots" + where
 	case k == 1:
-		return "1 root in RHP"
+		return "1 root" + where
 	}
-	return strconv.Itoa(k) + " roots in RHP"
+	return strconv.Itoa(k) + " roots" + where
 }
 
 // drawnLevels returns cs with only the levels that have a line of two

@@ -66,12 +66,16 @@ const curveWidth = vg.Length(1.5)
 // curveStyle returns the stroke of a boundary of kind k. The kinds differ
 // in dash pattern, not in colour, so they survive greyscale printing:
 // complex-pair edges (the common case, carrying ω labels) are solid,
-// real-root edges dashed and edges through infinity dotted.
+// real-root edges dashed, edges where a real root of a sampled loop
+// crosses z = −1 long-and-short dashed, and edges through infinity
+// dotted.
 func curveStyle(k stability.Kind) draw.LineStyle {
 	s := draw.LineStyle{Color: inkColour, Width: curveWidth}
 	switch k {
 	case stability.Real:
 		s.Dashes = []vg.Length{6, 3}
+	case stability.Alternating:
+		s.Dashes = []vg.Length{9, 2.5, 2, 2.5}
 	case stability.Infinite:
 		s.Dashes = []vg.Length{1.5, 2.5}
 		s.Width = 1.8
@@ -86,13 +90,54 @@ func haloStyle() draw.LineStyle {
 
 // kindNames are the legend texts of the boundary kinds.
 var kindNames = map[stability.Kind]string{
-	stability.Complex:  "pair crosses at ±jω",
-	stability.Real:     "real root crosses at 0",
-	stability.Infinite: "root crosses at ∞",
+	stability.Complex:     "pair crosses at ±jω",
+	stability.Real:        "real root crosses at 0",
+	stability.Infinite:    "root crosses at ∞",
+	stability.Alternating: "real root crosses at z = −1",
+}
+
+// sampledKindNames are the legend texts of the boundary kinds of a
+// sampled loop, whose boundary is the unit circle.
+var sampledKindNames = map[stability.Kind]string{
+	stability.Complex:     "pair crosses at e^(±jωT)",
+	stability.Real:        "real root crosses at z = 1",
+	stability.Infinite:    "root crosses at ∞",
+	stability.Alternating: "real root crosses at z = −1",
+}
+
+// kindName is the legend text of kind k, for a sampled map or not.
+func kindName(k stability.Kind, sampled bool) string {
+	if sampled {
+		return sampledKindNames[k]
+	}
+	return kindNames[k]
 }
 
 // kindOrder is the order of boundary kinds in the legend.
-var kindOrder = []stability.Kind{stability.Complex, stability.Real, stability.Infinite}
+var kindOrder = []stability.Kind{stability.Complex, stability.Real, stability.Alternating, stability.Infinite}
+
+// compareLooks are the strokes of the edges of compared sample times
+// (Figure.Compare), one per set in turn: hues spread away from the
+// iso-lines' and from the black of the map's own edges, each with its own
+// dash pattern, so that sets stay apart in greyscale too; thinner than
+// the map's edges and without their white casing.
+var compareLooks = []struct {
+	hue, lightness float64
+	dashes         []vg.Length
+}{
+	{250, 0.45, nil},
+	{35, 0.50, []vg.Length{7, 2}},
+	{320, 0.42, []vg.Length{2, 1.6}},
+	{185, 0.45, []vg.Length{10, 2, 2, 2, 2, 2}},
+	{95, 0.50, []vg.Length{4, 3}},
+	{275, 0.30, []vg.Length{12, 2, 4, 2}},
+}
+
+// compareStyle returns the stroke of the i-th compared set.
+func compareStyle(i int) draw.LineStyle {
+	l := compareLooks[i%len(compareLooks)]
+	return draw.LineStyle{Color: hcl(l.hue, contourChroma, l.lightness), Width: 1.3, Dashes: l.dashes}
+}
 
 // Iso-line sets are told apart twice over, so either cue suffices: by
 // dash pattern, which survives greyscale print, and by hue. Each set's

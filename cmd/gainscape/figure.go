@@ -24,11 +24,29 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 		note += "; fixed: " + fixed
 	}
 	notes := []string{note}
+	if res.Sampled != nil {
+		notes = append(notes, res.Sampled.Text(res.Units))
+	}
 	if demoLabel != "" {
 		notes = append(notes, demoLabel)
 	}
 	fig := render.Figure{Map: res.Map, Curves: res.Curves, Title: title, Notes: notes, FreqUnit: res.Units.Freq(),
 		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter, DPI: sc.Output.DPI}
+	if res.Sampled != nil {
+		fig.Sample = res.Sampled.T
+	}
+	if len(res.Compare) > 0 {
+		fig.OwnLabel = "continuous"
+		if res.Sampled != nil {
+			fig.OwnLabel = fmt.Sprintf("T = %g %s", res.Sampled.T, res.Units.TimeLabel())
+		}
+		for _, e := range res.Compare {
+			if e.Own {
+				continue
+			}
+			fig.Compare = append(fig.Compare, render.EdgeSet{Label: e.Label(res.Units), Curves: e.Curves})
+		}
+	}
 	ov := res.Overlays
 	if ov == nil {
 		return fig

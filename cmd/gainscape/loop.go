@@ -20,6 +20,7 @@ type loopFlags struct {
 	timeUnit        string
 	sample          float64
 	integral        string
+	prewarp         float64
 }
 
 // fixed reads every --set into one list: repeated flags add to each
@@ -53,7 +54,7 @@ func (f loopFlags) fixed() ([]spec.Value, error) {
 // spec reads the plant and controller flags into a loop description; the
 // study checks it.
 func (f loopFlags) spec() (study.LoopSpec, error) {
-	ls := study.LoopSpec{Plant: f.plant, Controller: f.ctrl, TimeUnit: f.timeUnit, Sample: f.sample, Integral: f.integral}
+	ls := study.LoopSpec{Plant: f.plant, Controller: f.ctrl, TimeUnit: f.timeUnit, Sample: f.sample, Integral: f.integral, Prewarp: f.prewarp}
 	switch {
 	case f.plant != "" && (f.num != "" || f.den != ""):
 		return ls, userErr("--plant cannot be combined with --num/--den; give the plant one way")

@@ -42,7 +42,7 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 			return s, err
 		}
 	}
-	s.Loop.TimeUnit, s.Loop.Sample, s.Loop.Integral = f.timeUnit, f.sample, f.integral
+	s.Loop.TimeUnit, s.Loop.Sample, s.Loop.Integral, s.Loop.Prewarp = f.timeUnit, f.sample, f.integral, f.prewarp
 	if given("x") {
 		if s.Axes.X, err = spec.ParseAxis(f.x); err != nil {
 			return s, userErr("--x: %v", err)
@@ -85,6 +85,9 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 		s.Overlays.Best = append(s.Overlays.Best, strings.ToLower(b))
 	}
 	s.Overlays.MsBound = f.msBound
+	if s.Overlays.CompareSamples, err = numberList("--compare-samples", f.compare); err != nil {
+		return s, err
+	}
 	return s, nil
 }
 

@@ -28,6 +28,32 @@ Controller:
   --time-unit UNIT    the unit of time of s: s, ms, us, min or h (default s);
                       labels frequencies, decay rates and periods
                         --time-unit ms
+Digital controller (a sampled-data loop):
+  --sample T          sample time: the plant in s is held (zero-order hold,
+                      exactly; a dead time is z^(−d) for whole samples, the
+                      modified z-transform for a fraction) and sampled; a
+                      plant written in z (--plant "0.2/(z-0.8)") needs it.
+                      Roots are counted outside the unit circle; an edge is a
+                      real root through z = 1 (ω = 0), through z = −1 (the
+                      output alternates every sample, ω = π/T) or a pair
+                      through e^(±jωT); decay rate −ln|z|/T; Ms up to π/T
+                        --sample 0.1
+  --integral RULE     the digital integral: backward ki·T·z/(z−1) (default),
+                      forward ki·T/(z−1), trapezoid ki·(T/2)(z+1)/(z−1); the
+                      derivative is kd·(z−1)/((tau+T)z − tau), lead and lag
+                      use s = (2/T)(z−1)/(z+1)
+                        --integral trapezoid
+  --prewarp W         lead, lag, leadlag: pre-warp at the fixed frequency W
+                      (rad per time unit, below π/T), s = (W/tan(WT/2))(z−1)/(z+1),
+                      so that C matches the continuous one at W
+                        --prewarp 3
+  --compare-samples LIST
+                      draw over the map the edges of the same window at
+                      these sample times (and of the continuous loop), each
+                      in its own style, and print the gain limit along x of
+                      each (at the lowest y, or just above it when that row
+                      is marginal); the plant must be given in s
+                        --compare-samples 0.05,0.2,0.5
 Window:
   --x NAME=MIN:MAX    horizontal axis (default: the controller's first
                       parameter, 0:10)
@@ -115,4 +141,6 @@ Examples:
       --x kp=0:15 --y ki=0:10 --grid 400x300 -o pid.svg --data pid.json
   gainscape map --plant "1/(s+1)^3" --ctrl pi --decay --best decay,ki --mark kp=1,ki=0.4
   gainscape map --scenario examples/heated-tank.toml -o tank.svg
+  gainscape map --plant "1/(s*(s+1))" --ctrl pi --sample 1 --x kp=0:3 --y ki=0:1 \
+      --compare-samples 0.1,0.5,2 -o sampling.png
 `

@@ -49,6 +49,9 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		fmt.Fprintf(&b, ", with %s", fixed)
 	}
 	b.WriteString("\n")
+	if res.Sampled != nil {
+		fmt.Fprintf(&b, "- Sampling: %s\n", res.Sampled.Text(res.Units))
+	}
 	fmt.Fprintf(&b, "- Window: %s from %g to %g, %s from %g to %g, %d × %d nodes\n", x.Param, x.Min, x.Max, y.Param, y.Min, y.Max, x.N, y.N)
 	if st.Stable > 0 {
 		fmt.Fprintf(&b, "- Stable: %.1f%% of the window; stable nodes span %s %.4g to %.4g and %s %.4g to %.4g\n",
@@ -57,13 +60,16 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		b.WriteString("- Stable: no stable node in the window\n")
 	}
 	if st.Marginal > 0 {
-		fmt.Fprintf(&b, "- Marginal: %d nodes have a root on the imaginary axis (on an edge, not stable)\n", st.Marginal)
+		fmt.Fprintf(&b, "- Marginal: %d nodes have a root %s (on an edge, not stable)\n", st.Marginal, boundaryWhere(res))
+	}
+	for _, e := range res.Compare {
+		fmt.Fprintf(&b, "- Gain limit, %s: stable for %s at %s = %.4g\n", e.Label(res.Units), e.LimitText(x.Param, res.Units), y.Param, e.LimitY)
 	}
 	if lo, hi, ok := res.OmegaRange(); ok {
 		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g %s\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
-		fmt.Fprintf(&b, "- %d nodes could not be decided by the sign-array test\n", st.Undecided)
+		fmt.Fprintf(&b, "- %d nodes could not be decided by the stability test\n", st.Undecided)
 	}
 	for _, p := range points(res) {
 		if p.Failed != "" {

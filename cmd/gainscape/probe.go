@@ -29,6 +29,17 @@ with the classic tuning rules computed from them.
 With --vary, prints instead every interval of one parameter in which the loop
 is stable, with how it loses stability at each end.
 
+With --sample T the loop is sampled (see "gainscape help map"): the report
+shows the unit-circle test's own table (the Schur–Cohn recursion, or the
+sign array of the bilinear image Q(w) in its special cases), the roots
+outside and on the unit circle, the poles in z with their continuous
+equivalents ln(z)/T, the largest |z| and the decay rate −ln|z|/T; margins,
+Ms and Mt are taken on z = e^(jωT) for 0 ≤ ω ≤ π/T, and the ultimate gain
+where the proportional-only loop's roots cross the circle (a pair, or a real
+root at z = −1 with Tu = 2T). The tuning rules, made for continuous
+controllers, then set the digital controller of the same structure and are
+checked with the unit-circle test.
+
 Flags:
   --plant EXPR | --num LIST --den LIST   the plant, as for "gainscape map"
                         --plant "1/(s+1)^3"
@@ -39,6 +50,9 @@ Flags:
   --x NAME, --y NAME  the plane for the distance to the nearest edge
                       (default: the first two parameters of the family)
                         --x kp --y ki
+  --sample T, --integral RULE, --prewarp W
+                      a digital controller, as for "gainscape map"
+                        --sample 0.5 --integral trapezoid
   --vary NAME=MIN:MAX find the stable intervals of one parameter instead
                         --vary kp=0:100
   --json              print one JSON object instead of text
@@ -48,6 +62,7 @@ Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
   gainscape probe --plant "1/(s*(s+1)*(s+2))" --ctrl p --vary kp=0:100
   gainscape probe --num "3" --den "0.16, 1.3, 2.45, 2.5, 1" --ctrl pi --set kp=1,ki=0.3 --json
+  gainscape probe --plant "1/(s*(s+1))" --ctrl p --sample 1 --vary kp=0:10
 `
 
 type probeFlags struct {
@@ -69,6 +84,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.timeUnit, "time-unit", "s", "unit of time of s")
 	fs.Float64Var(&f.sample, "sample", 0, "sample time of a digital controller (0: continuous)")
 	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
+	fs.Float64Var(&f.prewarp, "prewarp", 0, "pre-warp frequency of a digital lead or lag (0: none)")
 	fs.StringVar(&f.x, "x", "", "first parameter of the fragility plane")
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
@@ -98,19 +114,16 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 func printProbe(w io.Writer, rep *study.ProbeReport) {
 	r := rep.Doc
 	u := rep.Units
+	if rep.Sampled != nil {
+		printSampledProbe(w, rep)
+		return
+	}
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
 	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
 	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
 	fmt.Fprintln(w, "Routh sign array (first column decides):")
 	for _, row := range r.SignArray {
-		note := ""
-		switch {
-		case row.Auxiliary:
-			note = "  ← all-zero row: replaced by the derivative of the auxiliary polynomial"
-		case row.Epsilon:
-			note = "  ← zero first entry: replaced by ε → 0+ (ε rule)"
-		}
-		fmt.Fprintf(w, "  s^%-2d │ %s%s\n", row.Power, strings.Join(pad(row.Entries, 12), " "), note)
+		fmt.Fprintf(w, "  s^%-2d │ %s%s\n", row.Power, strings.Join(pad(row.Entries, 12), " "), rowNote(row))
 	}
 	if r.Aux != nil {
 		fmt.Fprintf(w, "  auxiliary polynomial A(s) = %s\n", polyText(r.Aux))
@@ -120,18 +133,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  the count below is confirmed from the eigenvalues, all clear of the imaginary axis")
 	}
 	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
-	if len(r.JWOmegas) > 0 {
-		fmt.Fprintf(w, " (ω = %s %s)", floatsText(r.JWOmegas), u.Freq())
-	}
-	if r.DegreeDrop > 0 {
-		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
-	}
-	fmt.Fprintln(w)
-	verdict := "STABLE"
-	if !r.Stable {
-		verdict = "NOT STABLE"
-	}
-	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
+	printVerdict(w, r, "ω", u)
 
 	fmt.Fprintln(w, "Closed-loop poles:")
 	for _, p := range r.Poles {
@@ -145,9 +147,46 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		}
 	}
 	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
+	printRobustness(w, rep)
+}
+
+// rowNote explains a special row of a sign array.
+func rowNote(row export.SignRow) string {
+	switch {
+	case row.Auxiliary:
+		return "  ← all-zero row: replaced by the derivative of the auxiliary polynomial"
+	case row.Epsilon:
+		return "  ← zero first entry: replaced by ε → 0+ (ε rule)"
+	}
+	return ""
+}
+
+// printVerdict ends the line of root counts with the frequencies of the
+// roots on the boundary (named omega) and the roots gone to infinity, and
+// writes the verdict.
+func printVerdict(w io.Writer, r *export.Probe, omega string, u study.Units) {
+	if len(r.JWOmegas) > 0 {
+		fmt.Fprintf(w, " (%s = %s %s)", omega, floatsText(r.JWOmegas), u.Freq())
+	}
+	if r.DegreeDrop > 0 {
+		fmt.Fprintf(w, "; %d root(s) gone to infinity (leading coefficient vanishes)", r.DegreeDrop)
+	}
+	fmt.Fprintln(w)
+	verdict := "STABLE"
+	if !r.Stable {
+		verdict = "NOT STABLE"
+	}
+	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
+}
+
+// printRobustness writes the margins, Ms, the nearest edge and the
+// ultimate gain with the tuning rules, for any kind of loop.
+func printRobustness(w io.Writer, rep *study.ProbeReport) {
+	r := rep.Doc
+	u := rep.Units
 	if !r.Stable {
 		fmt.Fprintln(w, "The loop is not stable, so the figures below are no robustness margins: they")
-		fmt.Fprintln(w, "describe the open loop L(jω), not how far the loop is from instability.")
+		fmt.Fprintf(w, "describe the open loop %s, not how far the loop is from instability.\n", openLoopText(rep))
 	}
 	switch len(r.GainMargins) {
 	case 0:
@@ -178,17 +217,20 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
 	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
-		printFragility(w, fr, u)
+		printFragility(w, fr, u, r.SampleTime)
 	}
 	if ul := r.Ultimate; ul != nil {
 		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
+		if ul.Method != "" {
+			fmt.Fprintf(w, "  %s\n", ul.Method)
+		}
 		if !ul.RulesApply {
 			fmt.Fprintf(w, "  %s; their settings follow for reference only\n", ul.Note)
 		}
 		for _, rule := range ul.Rules {
 			verdict := "stable"
 			if !rule.Stable {
-				verdict = fmt.Sprintf("NOT stable (%d roots in the right half plane)", rule.RHP)
+				verdict = fmt.Sprintf("NOT stable (%d roots %s)", rule.RHP, unstableSide(rep))
 			}
 			fmt.Fprintf(w, "  %-24s kp = %-10.4g ki = %-10.4g kd = %-10.4g %s\n", rule.Name, rule.Kp, rule.Ki, rule.Kd, verdict)
 		}
@@ -200,8 +242,9 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	fmt.Fprintln(w, caution)
 }
 
-// printFragility writes the fragility lines of the probe report.
-func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
+// printFragility writes the fragility lines of the probe report; T is the
+// sample time of a sampled loop, 0 for a continuous one.
+func printFragility(w io.Writer, fr *export.Fragility, u study.Units, T float64) {
 	xn, yn := fr.Plane[0], fr.Plane[1]
 	if !fr.Found {
 		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
@@ -209,6 +252,9 @@ func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
 		return
 	}
 	edge := func(n *export.NearestEdge) string {
+		if T > 0 {
+			return circleEdgeText(n, u)
+		}
 		switch n.Kind.String() {
 		case "complex":
 			return fmt.Sprintf("a complex pair crosses at ω = %.4g %s", float64(n.Omega), u.Freq())
@@ -237,7 +283,10 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 	if f.json {
 		return export.Write(w, rep.Doc)
 	}
-	fmt.Fprintf(w, "plant        G(s) = %s\n", rep.Doc.Plant)
+	fmt.Fprintf(w, "plant        %s\n", plantText(rep.Doc.Plant))
+	if rep.Sampled != nil {
+		fmt.Fprintf(w, "sampling     %s\n", rep.Sampled.Text(study.Units{Time: ls.TimeUnit}))
+	}
 	fmt.Fprintf(w, "controller   %s", rep.Formula)
 	if fx := study.ValuesText(rep.Fixed); fx != "" {
 		fmt.Fprintf(w, " with %s", fx)

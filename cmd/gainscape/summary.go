@@ -10,7 +10,6 @@ import (
 
 	"gainscape/regions/export"
 	"gainscape/regions/scenario"
-	"gainscape/regions/stability"
 	"gainscape/regions/study"
 )
 
@@ -26,6 +25,9 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		fmt.Fprintf(w, "; fixed %s", fixed)
 	}
 	fmt.Fprintln(w)
+	if res.Sampled != nil {
+		fmt.Fprintf(w, "sampling    %s\n", res.Sampled.Text(res.Units))
+	}
 	x, y := res.X, res.Y
 	fmt.Fprintf(w, "window      %s %g…%g (%d nodes) × %s %g…%g (%d nodes)\n",
 		x.Param, x.Min, x.Max, x.N, y.Param, y.Min, y.Max, y.N)
@@ -33,21 +35,21 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		fmt.Fprintf(w, "stable      %.1f%% of the window; stable nodes span %s %.4g…%.4g, %s %.4g…%.4g\n",
 			100*st.StableFraction(), x.Param, st.XMin, st.XMax, y.Param, st.YMin, st.YMax)
 	} else if st.MaxRHP > 0 {
-		fmt.Fprintf(w, "stable      no stable node in the window (most unstable: %d roots in the right half plane)\n", st.MaxRHP)
+		fmt.Fprintf(w, "stable      no stable node in the window (most unstable: %d roots %s)\n", st.MaxRHP, unstableWhere(res))
 	} else {
 		fmt.Fprintln(w, "stable      no stable node in the window")
 	}
 	if st.Marginal > 0 {
-		fmt.Fprintf(w, "marginal    %d nodes with a root on the imaginary axis and none to its right: on an edge, not stable (drawn violet)\n", st.Marginal)
+		fmt.Fprintf(w, "marginal    %d nodes with a root %s and none %s: on an edge, not stable (drawn violet)\n", st.Marginal, boundaryWhere(res), beyondWhere(res))
 	}
-	fmt.Fprintf(w, "edges       %d complex-pair, %d real-root, %d through-infinity curves\n",
-		res.Edges[stability.Complex], res.Edges[stability.Real], res.Edges[stability.Infinite])
+	fmt.Fprintf(w, "edges       %s\n", edgeCounts(res))
 	if lo, hi, ok := res.OmegaRange(); ok {
 		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g %s along the complex-pair edges\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
-		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
+		fmt.Fprintf(w, "undecided   %d nodes where the stability test could not be trusted (drawn hatched)\n", st.Undecided)
 	}
+	printCompare(w, res)
 	for _, p := range points(res) {
 		if p.Failed != "" {
 			fmt.Fprintf(w, "%-11s none found: %s\n", pointName(p), p.Failed)

@@ -43,8 +43,16 @@ type Region struct {
 	// decay rates in 1 per it.
 	TimeUnit string             `json:"time_unit"`
 	Fixed    map[string]float64 `json:"fixed"`
-	X        plane.Axis         `json:"x"`
-	Y        plane.Axis         `json:"y"`
+	// SampleTime and Integral describe a sampled-data loop (the sample
+	// time in TimeUnit, the rule of the digital integral); both are
+	// omitted for a continuous-time loop. In a sampled map rhp counts the
+	// roots outside the unit circle, axis those on it, and a boundary of
+	// kind "real" is a root through z = 1, "alternating" one through
+	// z = −1 (ω = π/T), "complex" a pair through e^(±jωT).
+	SampleTime float64    `json:"sample_time,omitempty"`
+	Integral   string     `json:"integral,omitempty"`
+	X          plane.Axis `json:"x"`
+	Y          plane.Axis `json:"y"`
 	// RHP[j][i] is the right-half-plane root count at (x_i, y_j), row 0
 	// at y = min; -1 where the test could not decide.
 	RHP [][]int `json:"rhp"`
@@ -57,6 +65,26 @@ type Region struct {
 	// Extra holds the overlays and the marked and found points, when any
 	// were asked for.
 	Extra *Extra `json:"extra,omitempty"`
+	// Compare holds the edges of the same window at other sample times
+	// (and of the continuous loop), when they were asked for.
+	Compare []SampleEdges `json:"compare_samples,omitempty"`
+}
+
+// SampleEdges are the stability edges of a map's window for one sample
+// time (0: the continuous loop), with the gain limit along the x axis.
+type SampleEdges struct {
+	SampleTime float64    `json:"sample_time"`
+	Boundaries []Boundary `json:"boundaries"`
+	// Limits are the stable intervals of x at the window's lowest y (or
+	// just above it, Above set, where that row is marginal); an end of
+	// kind "window" is the window's side.
+	Limits []Interval `json:"x_limits"`
+	Above  bool       `json:"limit_above_lowest_y,omitempty"`
+	// LimitY is the y at which Limits were taken.
+	LimitY float64 `json:"limit_y"`
+	// Own marks the map's own loop, whose edges are the map's boundaries
+	// (its Boundaries are empty here).
+	Own bool `json:"own,omitempty"`
 }
 
 // Boundary is one boundary polyline; each point is [x, y, ω] with ω null

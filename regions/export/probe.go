@@ -5,22 +5,38 @@ import "gainscape/regions/stability"
 // Probe is the probe --json document for one design point. Its field
 // names are a stable contract.
 type Probe struct {
-	Plant          string             `json:"plant"`
-	Controller     string             `json:"controller"`
-	TimeUnit       string             `json:"time_unit"`
-	Values         map[string]float64 `json:"values"`
-	Characteristic []float64          `json:"characteristic"` // highest power first
-	SignArray      []SignRow          `json:"sign_array"`
-	Aux            []float64          `json:"auxiliary_polynomial,omitempty"`
-	Stable         bool               `json:"stable"`
-	CountFrom      string             `json:"count_from"`
-	RHP            int                `json:"rhp"`
-	JW             int                `json:"jw_roots"`
-	JWOmegas       []float64          `json:"jw_omegas"`
-	DegreeDrop     int                `json:"degree_drop"`
-	Poles          [][2]float64       `json:"poles"`
-	DecayRate      float64            `json:"decay_rate"`
-	MinDamping     float64            `json:"min_damping"`
+	Plant      string             `json:"plant"`
+	Controller string             `json:"controller"`
+	TimeUnit   string             `json:"time_unit"`
+	Values     map[string]float64 `json:"values"`
+	// SampleTime and Integral describe a sampled-data loop, omitted for a
+	// continuous-time one: then Characteristic is in z, SignArray holds
+	// the rows of the unit-circle test (the Schur–Cohn recursion, or the
+	// sign array of the bilinear image Q(w)), RHP counts the roots outside
+	// the unit circle, JW those on it, JWOmegas their θ/T, and every
+	// frequency lies in [0, π/T].
+	SampleTime     float64   `json:"sample_time,omitempty"`
+	Integral       string    `json:"integral,omitempty"`
+	Characteristic []float64 `json:"characteristic"` // highest power first
+	SignArray      []SignRow `json:"sign_array"`
+	// TestNotes are the stability test's remarks on special cases.
+	TestNotes  []string  `json:"test_notes,omitempty"`
+	Aux        []float64 `json:"auxiliary_polynomial,omitempty"`
+	Stable     bool      `json:"stable"`
+	CountFrom  string    `json:"count_from"`
+	RHP        int       `json:"rhp"`
+	JW         int       `json:"jw_roots"`
+	JWOmegas   []float64 `json:"jw_omegas"`
+	DegreeDrop int       `json:"degree_drop"`
+	// Poles are the closed-loop poles: in s, or for a sampled loop in z,
+	// largest magnitude first, with ContinuousPoles their equivalents
+	// ln(z)/T (null real part for z = 0) and RootRadius the largest |z|.
+	Poles           [][2]float64 `json:"poles"`
+	ContinuousPoles []Number2    `json:"continuous_poles,omitempty"`
+	RootRadius      *float64     `json:"root_radius,omitempty"`
+	// DecayRate is −max Re s, or −ln(max |z|)/T for a sampled loop.
+	DecayRate  float64 `json:"decay_rate"`
+	MinDamping float64 `json:"min_damping"`
 	// GainMargin is the gain margin nearest 0 dB, as a factor; GainMargins
 	// lists every phase crossover with its margin.
 	GainMargin     Number       `json:"gain_margin"`
@@ -41,6 +57,10 @@ type Probe struct {
 	Caution    string     `json:"caution"`
 }
 
+// Number2 is a pair of numbers, each written as null when it is not
+// finite.
+type Number2 [2]Number
+
 // GainMargin is the margin of one phase crossover (arg L = −180°): the
 // factor by which the loop gain may change there before a pair of roots
 // reaches the imaginary axis at ω = Freq. Direction is "rise" for a
@@ -54,8 +74,10 @@ type GainMargin struct {
 	Direction string  `json:"direction"`
 }
 
-// SignRow is one row of the sign array.
+// SignRow is one row of the sign array, or of another test's table,
+// which names its rows by Label.
 type SignRow struct {
+	Label     string   `json:"label,omitempty"`
 	Power     int      `json:"power"`
 	Entries   []string `json:"entries"`
 	Epsilon   bool     `json:"epsilon_rule,omitempty"`
@@ -86,9 +108,15 @@ type NearestEdge struct {
 // Ultimate is the ultimate gain and period of the proportional-only loop
 // and the tuning rules computed from them.
 type Ultimate struct {
-	Ku    float64 `json:"ku"`
-	Tu    float64 `json:"tu"`
-	Rules []Rule  `json:"rules"`
+	Ku float64 `json:"ku"`
+	Tu float64 `json:"tu"`
+	// Kind is how the roots cross at Ku: "complex" (a pair), or for a
+	// sampled loop "alternating" (a real root at z = −1, Tu = 2T).
+	Kind string `json:"kind"`
+	// Method says how Ku and Tu were found and the rules applied, where
+	// that needs saying (a sampled loop).
+	Method string `json:"method,omitempty"`
+	Rules  []Rule `json:"rules"`
 	// RulesApply is false, with Note saying why, where the rules were not
 	// made for the plant (one that is unstable in open loop).
 	RulesApply bool   `json:"rules_apply"`
@@ -119,13 +147,19 @@ type Vary struct {
 	Min        float64            `json:"min"`
 	Max        float64            `json:"max"`
 	Fixed      map[string]float64 `json:"fixed"`
-	Intervals  []Interval         `json:"intervals"`
-	Caution    string             `json:"caution"`
+	// SampleTime and Integral describe a sampled-data loop (the sample
+	// time in TimeUnit, the rule of the digital integral); both are
+	// omitted for a continuous-time loop.
+	SampleTime float64    `json:"sample_time,omitempty"`
+	Integral   string     `json:"integral,omitempty"`
+	Intervals  []Interval `json:"intervals"`
+	Caution    string     `json:"caution"`
 }
 
 // Interval is one stable interval (Lo, Hi) and how each end is reached.
 // A kind is "real", "complex", "infinite" or "window" (the end of the
-// range scanned).
+// range scanned), or for a sampled loop "alternating" (a real root
+// through z = −1, ω = π/T); "real" is then a root through z = 1.
 type Interval struct {
 	Lo      float64 `json:"lo"`
 	Hi      float64 `json:"hi"`

@@ -1,6 +1,7 @@
 // Package intervals finds, for one controller parameter with every other
 // parameter held fixed, the intervals of its values for which the closed
-// loop is stable, with how the roots cross the imaginary axis at each end.
+// loop is stable, with how the roots cross the imaginary axis (or, for a
+// sampled-data loop, the unit circle) at each end.
 //
 // Method: the D-partition (D-decomposition) of Yu. I. Neimark, "On the
 // determination of the values of parameters for which an automatic
@@ -13,7 +14,10 @@
 // Im(A(jω)·conj(B(jω))) vanish) or at infinity (the leading coefficient
 // vanishes). These values of k are found from polynomial equations, the
 // pieces between them are tested once each with the Routh sign array, and
-// every end is confirmed by bisection on the sign-array test.
+// every end is confirmed by bisection on the sign-array test. A sampled-data
+// loop takes the same path with the unit circle in place of the axis: its
+// candidates are where a root passes z = 1, z = −1, e^(±jθ) or infinity
+// (see circle.go), and its pieces are tested by the loop's own test.
 package intervals
 
 import (
@@ -85,7 +89,7 @@ func Stable(l loop.Loop, param int, lo, hi float64) ([]Interval, error) {
 		return nil, fmt.Errorf("stable intervals of %s: %w", name, err)
 	}
 	test := l.Test()
-	s := search{line: ln, lo: lo, hi: hi, test: test, counter: test.NewCounter(ln.len()), p: make(poly.Poly, ln.len())}
+	s := search{line: ln, lo: lo, hi: hi, test: test, counter: test.NewCounter(ln.len()), p: make(poly.Poly, ln.len()), sample: l.Plant.Sample}
 	return s.run(), nil
 }
 
@@ -96,6 +100,8 @@ type search struct {
 	test    stability.Test
 	counter stability.Counter
 	p       poly.Poly // scratch
+	// sample is the sample time of a sampled-data loop, 0 otherwise.
+	sample float64
 	// scale is the loop's own scale of the parameter (see Accuracy).
 	scale float64
 }
@@ -130,7 +136,7 @@ type group struct {
 // run splits the window at the candidate values, tests each piece, merges
 // stable neighbours and refines the ends.
 func (s *search) run() []Interval {
-	cands := s.line.candidates()
+	cands := s.candidates()
 	sort.Slice(cands, func(i, j int) bool { return cands[i].k < cands[j].k })
 	// The window width alone is no scale: over kp = 0…1e20 every boundary
 	// near kp = 8 would look like zero.

@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/zoh"
 )
 
 // benchLoops returns 256 stable random loops (see randomLoop).
@@ -73,3 +74,39 @@ func benchEigenDecay(b *testing.B, n int) {
 func BenchmarkDecayEigenDegree3(b *testing.B)  { benchEigenDecay(b, 3) }
 func BenchmarkDecayEigenDegree5(b *testing.B)  { benchEigenDecay(b, 5) }
 func BenchmarkDecayEigenDegree10(b *testing.B) { benchEigenDecay(b, 10) }
+
+// sampledBenchLoop is an invented held third-order lag under a gain, the
+// loop of the sampled benchmarks.
+func sampledBenchLoop(b *testing.B) SampledLoop {
+	nz, dz, err := zoh.Discretise(poly.Poly{2}, poly.FromDescending([]float64{1, 3, 3, 1}), 0.1, 0)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return SampledLoop{Num: nz.Scaled(1.5), Den: dz, T: 0.1}
+}
+
+// BenchmarkSampledMsEvaluator and BenchmarkSampledMargins compare the
+// per-node Ms of a sampled map with the probe's full scan of the same
+// loop; read them as a ratio within one run.
+func BenchmarkSampledMsEvaluator(b *testing.B) {
+	l := sampledBenchLoop(b)
+	lo, _ := l.FrequencyRange()
+	ev, err := NewSampledMsEvaluator(l.T, lo, DefaultMsPerDecade, len(l.Den), DefaultMsSteps, l.EquivalentRoots())
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		ev.Ms(l.Num, l.Den)
+	}
+}
+
+func BenchmarkSampledMargins(b *testing.B) {
+	l := sampledBenchLoop(b)
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := l.Margins(); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

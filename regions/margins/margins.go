@@ -149,17 +149,22 @@ func (l Loop) Margins() (Margins, error) {
 		return Margins{}, fmt.Errorf("margins: the loop denominator is zero")
 	}
 	lo, hi, roots := l.rangeAndRoots()
-	w := scanGrid(lo, hi, roots)
+	return measure(l, scanGrid(lo, hi, roots)), nil
+}
+
+// measure scans the response r on the frequencies w (ascending) for its
+// crossovers and peaks, as Loop.Margins describes.
+func measure(r response, w []float64) Margins {
 	ev := make([]point, len(w))
 	for i, x := range w {
-		ev[i] = l.point(x)
+		ev[i] = r.point(x)
 	}
 	m := Margins{
 		GainMargin: math.Inf(1), PhaseCrossover: math.NaN(),
 		PhaseMargin: math.Inf(1), GainCrossover: math.NaN(),
 	}
-	m.PhaseCrossings = l.phaseCrossings(w, ev)
-	m.GainCrossings = l.gainCrossings(w, ev)
+	m.PhaseCrossings = phaseCrossings(r, w, ev)
+	m.GainCrossings = gainCrossings(r, w, ev)
 	for _, c := range m.PhaseCrossings {
 		if math.Abs(math.Log(c.Margin)) < math.Abs(math.Log(m.GainMargin)) {
 			m.GainMargin, m.PhaseCrossover = c.Margin, c.Freq
@@ -170,9 +175,9 @@ func (l Loop) Margins() (Margins, error) {
 			m.PhaseMargin, m.GainCrossover = c.Margin, c.Freq
 		}
 	}
-	m.Ms, m.MsFreq = l.peak(w, ev, false)
-	m.Mt, m.MtFreq = l.peak(w, ev, true)
-	return m, nil
+	m.Ms, m.MsFreq = peak(r, w, ev, false)
+	m.Mt, m.MtFreq = peak(r, w, ev, true)
+	return m
 }
 
 // point holds what the scan needs at one frequency.
@@ -186,43 +191,40 @@ type point struct {
 func (l Loop) point(w float64) point {
 	nr, ni := evalJW(l.Num, w)
 	dr, di := evalJW(l.Den, w)
-	an, ad := math.Hypot(nr, ni), math.Hypot(dr, di)
-	ac := math.Hypot(dr+nr, di+ni)
-	return point{
-		sinPh: (ni*dr - nr*di) / (an * ad),
-		reL:   nr*dr + ni*di,
-		logM:  math.Log(an) - math.Log(ad),
-		s:     ad / ac,
-		t:     an / ac,
-	}
+	return pointOf(nr, ni, dr, di)
 }
 
 // phaseCrossings finds every ω with arg L = −180°.
-func (l Loop) phaseCrossings(w []float64, ev []point) []Crossing {
-	var out []Crossing
-	// ω = 0: L(0) real, finite, non-zero and negative.
-	if n0, d0 := l.Num.EvalReal(0), l.Den.EvalReal(0); d0 != 0 && n0 != 0 && n0/d0 < 0 {
-		out = append(out, Crossing{Freq: 0, Margin: math.Abs(d0 / n0)})
-	}
-	f := func(x float64) float64 { return l.point(x).sinPh }
+func phaseCrossings(r response, w []float64, ev []point) []Crossing {
+	out, top := r.endPhaseCrossings()
+	f := func(x float64) float64 { return r.point(x).sinPh }
 	for _, x := range signChanges(w, ev, func(p point) float64 { return p.sinPh }, f) {
-		p := l.point(x)
+		p := r.point(x)
 		if math.Abs(p.sinPh) <= residualTol && p.reL < 0 {
 			out = append(out, Crossing{Freq: x, Margin: math.Exp(-p.logM)})
 		}
 	}
-	return out
+	return append(out, top...)
+}
+
+// endPhaseCrossings implements response: ω = 0 is a phase crossover when
+// L(0) is real, finite, non-zero and negative.
+func (l Loop) endPhaseCrossings() (zero, top []Crossing) {
+	if n0, d0 := l.Num.EvalReal(0), l.Den.EvalReal(0); d0 != 0 && n0 != 0 && n0/d0 < 0 {
+		zero = []Crossing{{Freq: 0, Margin: math.Abs(d0 / n0)}}
+	}
+	return zero, nil
 }
 
 // gainCrossings finds every ω with |L| = 1.
-func (l Loop) gainCrossings(w []float64, ev []point) []Crossing {
+func gainCrossings(r response, w []float64, ev []point) []Crossing {
 	var out []Crossing
-	f := func(x float64) float64 { return l.point(x).logM }
+	f := func(x float64) float64 { return r.point(x).logM }
 	for _, x := range signChanges(w, ev, func(p point) float64 { return p.logM }, f) {
 		if math.Abs(f(x)) > residualTol {
 			continue
 		}
-		lj := l.At(x)
+		lj := r.At(x)
 		pm := 180 + math.Atan2(imag(lj), real(lj))*180/math.Pi
 		if pm > 180 {
 			pm -= 360
@@ -320,8 +322,9 @@ func brent(f func(float64) float64, a, b, fa, fb float64) float64 {
 
 // peak returns the largest value of |S| (or of |T| when comp is set) over
 // ω ≥ 0 and where it occurs: the grid's interior local maxima refined by
-// golden-section search, and the exact values at ω = 0 and ω → ∞.
-func (l Loop) peak(w []float64, ev []point, comp bool) (best, at float64) {
+// golden-section search, and the exact values at ω = 0 and at the top
+// end (ω → ∞, or π/T for a sampled loop).
+func peak(r response, w []float64, ev []point, comp bool) (best, at float64) {
 	get := func(p point) float64 { return p.s }
 	if comp {
 		get = func(p point) float64 { return p.t }
@@ -332,7 +335,7 @@ func (l Loop) peak(w []float64, ev []point, comp bool) (best, at float64) {
 			best, at = v, w[i]
 		}
 	}
-	f := func(lw float64) float64 { return get(l.point(math.Exp(lw))) }
+	f := func(lw float64) float64 { return get(r.point(math.Exp(lw))) }
 	for i := 1; i+1 < len(ev); i++ {
 		v := get(ev[i])
 		if !(v > get(ev[i-1]) && v >= get(ev[i+1])) {
@@ -343,7 +346,7 @@ func (l Loop) peak(w []float64, ev []point, comp bool) (best, at float64) {
 			best, at = fx, math.Exp(x)
 		}
 	}
-	s0, t0, s1, t1 := l.ends()
+	s0, t0, s1, t1 := r.ends()
 	zero, inf := s0, s1
 	if comp {
 		zero, inf = t0, t1
@@ -352,10 +355,14 @@ func (l Loop) peak(w []float64, ev []point, comp bool) (best, at float64) {
 		best, at = zero, 0
 	}
 	if inf > best {
-		best, at = inf, math.Inf(1)
+		best, at = inf, r.top()
 	}
 	return best, at
 }
+
+// top implements response: the scan of a continuous-time loop ends at
+// ω → ∞.
+func (Loop) top() float64 { return math.Inf(1) }
 
 // ends returns |S| and |T| at ω = 0 and in the limit ω → ∞. A value that
 // is undefined (Num and Den both vanishing at 0) is NaN, which never wins a

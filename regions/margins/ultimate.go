@@ -53,9 +53,6 @@ func Ultimate(plantNum, plantDen poly.Poly, test stability.Test) (ku, tu float64
 	}
 	qx = qx.Trim(poly.RelTol)
 
-	type cand struct {
-		k, w float64 // w > 0 for an imaginary-axis pair, 0 otherwise
-	}
 	var cs []cand
 	if qx.Degree() > 0 {
 		xs, err := qx.Roots()
@@ -87,6 +84,26 @@ func Ultimate(plantNum, plantDen poly.Poly, test stability.Test) (ku, tu float64
 			cs = append(cs, cand{k, 0})
 		}
 	}
+	k, w, ok := firstLoss(cs, stabilityTester{num: num, den: den, test: test})
+	if !ok {
+		return 0, 0, false
+	}
+	return k, 2 * math.Pi / w, true
+}
+
+// cand is a gain at which a root of the proportional-only loop reaches
+// the stability boundary: with w > 0 the frequency of an oscillatory
+// crossing, 0 for one that is not (through s = 0, z = 1 or infinity).
+type cand struct {
+	k, w float64
+}
+
+// firstLoss returns the first oscillatory candidate gain at which the
+// loop, stable just below it, is unstable just above it, with its
+// frequency; ok is false when there is none. Between consecutive
+// candidates the count of unstable roots is constant, so each piece is
+// tested once.
+func firstLoss(cs []cand, st stabilityTester) (k, w float64, ok bool) {
 	if len(cs) == 0 {
 		return 0, 0, false
 	}
@@ -112,7 +129,6 @@ func Ultimate(plantNum, plantDen poly.Poly, test stability.Test) (ku, tu float64
 		}
 		merged = append(merged, c)
 	}
-	st := stabilityTester{num: num, den: den, test: test}
 	prev := 0.0
 	for i, c := range merged {
 		below := 0.5 * (prev + c.k)
@@ -125,7 +141,7 @@ func Ultimate(plantNum, plantDen poly.Poly, test stability.Test) (ku, tu float64
 			continue
 		}
 		if st.stable(below) && !st.stable(above) {
-			return c.k, 2 * math.Pi / c.w, true
+			return c.k, c.w, true
 		}
 	}
 	return 0, 0, false

@@ -181,8 +181,9 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			TimeUnit    intoString  `toml:"time_unit"`
 			Sample      intoNumber  `toml:"sample"`
 			Integral    intoString  `toml:"integral"`
+			Prewarp     intoNumber  `toml:"prewarp"`
 		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit},
-			intoNumber{&l.Sample}, intoString{&l.Integral}},
+			intoNumber{&l.Sample}, intoString{&l.Integral}, intoNumber{&l.Prewarp}},
 		"axes": &struct {
 			X    intoAxis `toml:"x"`
 			Y    intoAxis `toml:"y"`
@@ -196,8 +197,9 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			MsBound       intoNumber  `toml:"ms_bound"`
 			Marks         intoMarks   `toml:"marks"`
 			Best          intoStrings `toml:"best"`
+			Compare       intoNumbers `toml:"compare_samples"`
 		}{intoBool{&v.Decay}, intoNumbers{&v.DecayLevels}, intoNumbers{&v.DampingLevels}, intoNumbers{&v.MsLevels},
-			intoNumber{&v.MsBound}, intoMarks{&v.Marks, markTables}, intoStrings{&v.Best}},
+			intoNumber{&v.MsBound}, intoMarks{&v.Marks, markTables}, intoStrings{&v.Best}, intoNumbers{&v.CompareSamples}},
 		"output": &struct {
 			Image    intoString `toml:"image"`
 			Data     intoString `toml:"data"`

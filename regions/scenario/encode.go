@@ -61,6 +61,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 	fmt.Fprintf(&b, "time_unit = %s    # the unit of time of s: labels only\n", quote(l.TimeUnit))
 	fmt.Fprintf(&b, "sample = %s    # sample time of a digital controller; 0: continuous\n", formatNumber(l.Sample))
 	fmt.Fprintf(&b, "integral = %s    # a digital integral: backward, forward or trapezoid\n", quote(l.Integral))
+	fmt.Fprintf(&b, "prewarp = %s    # pre-warp frequency of a digital lead or lag; 0: none\n", formatNumber(l.Prewarp))
 
 	a := s.Axes
 	b.WriteString("\n[axes]\n")
@@ -90,6 +91,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 	fmt.Fprintf(&b, "marks = [%s]\n", strings.Join(marks, ", "))
 	fmt.Fprintf(&b, "best = [%s]\n", strings.Join(best, ", "))
 	fmt.Fprintf(&b, "ms_bound = %s    # 0: no limit\n", formatNumber(o.MsBound))
+	fmt.Fprintf(&b, "compare_samples = %s    # sample times whose edges are drawn over the map\n", formatList(o.CompareSamples))
 
 	out := s.Output
 	b.WriteString("\n[output]    # an empty path is not written\n")

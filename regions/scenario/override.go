@@ -22,6 +22,7 @@ var overrides = []struct {
 	{"time-unit", []string{"loop.time_unit"}, func(s, o *Scenario) { s.Loop.TimeUnit = o.Loop.TimeUnit }},
 	{"sample", []string{"loop.sample"}, func(s, o *Scenario) { s.Loop.Sample = o.Loop.Sample }},
 	{"integral", []string{"loop.integral"}, func(s, o *Scenario) { s.Loop.Integral = o.Loop.Integral }},
+	{"prewarp", []string{"loop.prewarp"}, func(s, o *Scenario) { s.Loop.Prewarp = o.Loop.Prewarp }},
 	{"set", nil, func(s, o *Scenario) { s.Fixed = mergeValues(s.Fixed, o.Fixed) }},
 	{"x", []string{"axes.x"}, func(s, o *Scenario) { s.Axes.X = o.Axes.X }},
 	{"y", []string{"axes.y"}, func(s, o *Scenario) { s.Axes.Y = o.Axes.Y }},
@@ -42,6 +43,7 @@ var overrides = []struct {
 	{"mark", []string{"overlays.marks"}, func(s, o *Scenario) { s.Overlays.Marks = o.Overlays.Marks }},
 	{"best", []string{"overlays.best"}, func(s, o *Scenario) { s.Overlays.Best = o.Overlays.Best }},
 	{"ms-bound", []string{"overlays.ms_bound"}, func(s, o *Scenario) { s.Overlays.MsBound = o.Overlays.MsBound }},
+	{"compare-samples", []string{"overlays.compare_samples"}, func(s, o *Scenario) { s.Overlays.CompareSamples = o.Overlays.CompareSamples }},
 }
 
 // OutsidePathsFlag is the name, without dashes, of the command's flag

@@ -64,6 +64,10 @@ type Loop struct {
 	// (--integral): "backward" (the default, also when empty), "forward"
 	// or "trapezoid".
 	Integral string
+	// Prewarp, when positive, pre-warps the trapezoidal rule of a digital
+	// lead, lag or lead-lag at that frequency, in rad per time unit
+	// (--prewarp); 0 leaves it unwarped.
+	Prewarp float64
 }
 
 // Axes is the window: the two swept parameters and the grid over them.
@@ -90,6 +94,10 @@ type Overlays struct {
 	// MsBound limits those searches to points with Ms at most MsBound;
 	// zero means no limit (--ms-bound).
 	MsBound float64
+	// CompareSamples are sample times whose edges are drawn over the map
+	// of the same window, with the continuous loop's, to show what
+	// sampling does (--compare-samples).
+	CompareSamples []float64
 }
 
 // Output names the files written and sizes the image. An empty path
@@ -143,6 +151,10 @@ const (
 	MaxFixed = 32
 	// MaxTitleRunes is the longest title, about two lines over a map.
 	MaxTitleRunes = 200
+	// MaxCompareSamples is the most sample times compared on one map:
+	// each is a map of its own, and beyond a handful their edges can no
+	// longer be told apart.
+	MaxCompareSamples = 6
 )
 
 // MarkLabel returns the label of design point i, counting from 0: "A" to

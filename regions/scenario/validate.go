@@ -71,6 +71,9 @@ func (l Loop) validate(v *validator) {
 	if !finite(l.Sample) || l.Sample < 0 {
 		v.add("loop.sample", "%s: a sample time is a positive number, or 0 for a continuous-time controller", formatNumber(l.Sample))
 	}
+	if !finite(l.Prewarp) || l.Prewarp < 0 {
+		v.add("loop.prewarp", "%s: a pre-warp frequency is a positive number, or 0 for none", formatNumber(l.Prewarp))
+	}
 	if !slices.Contains([]string{"", "backward", "forward", "trapezoid"}, l.Integral) {
 		v.add("loop.integral", "%s is not a rule for the integral; use backward, forward or trapezoid", quoteShort(l.Integral))
 	}
@@ -119,6 +122,15 @@ func (o Overlays) validate(v *validator) {
 		func(x float64) bool { return x >= 0 && x <= 1 })
 	// Ms is at least 1 for a strictly proper loop: S(jω) → 1 as ω → ∞.
 	v.levels("overlays.ms_levels", o.MsLevels, "Ms is at least 1", func(x float64) bool { return x >= 1 })
+	if len(o.CompareSamples) > MaxCompareSamples {
+		v.add("overlays.compare_samples", "%d sample times; a map compares at most %d", len(o.CompareSamples), MaxCompareSamples)
+	} else {
+		for _, T := range o.CompareSamples {
+			if !finite(T) || T <= 0 {
+				v.add("overlays.compare_samples", "%s: %s is not a sample time, which is a positive number", formatList(o.CompareSamples), formatNumber(T))
+			}
+		}
+	}
 	if !finite(o.MsBound) || (o.MsBound != 0 && o.MsBound < 1) {
 		v.add("overlays.ms_bound", "%s: expected 0 (no limit) or a bound of at least 1, since Ms is at least 1", formatNumber(o.MsBound))
 	}

@@ -33,6 +33,10 @@ type LoopSpec struct {
 	// "" is the default, backward).
 	Sample   float64
 	Integral string
+	// Prewarp, when positive, pre-warps the trapezoidal rule of a digital
+	// lead, lag or lead-lag at that frequency (rad per time unit,
+	// family.DigitalPrewarped); 0 leaves it unwarped.
+	Prewarp float64
 }
 
 // PlantText is the plant as the user gave it, for titles and reports.
@@ -82,21 +86,16 @@ func (ls LoopSpec) Build() (loop.Loop, error) {
 		return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
 	}
 	plant := loop.Plant{Num: pn, Den: pd, Delay: delay}
+	if err := ls.checkSampling(inZ); err != nil {
+		return loop.Loop{}, err
+	}
 	if ls.Sample > 0 {
 		if plant, err = ls.sampled(plant, inZ); err != nil {
 			return loop.Loop{}, err
 		}
-		rule := family.Backward
-		if ls.Integral != "" {
-			if rule, err = family.ParseIntegralRule(ls.Integral); err != nil {
-				return loop.Loop{}, &InputError{Flag: "--integral", Key: "loop.integral", Err: err}
-			}
+		if fam, err = ls.digital(fam); err != nil {
+			return loop.Loop{}, err
 		}
-		if fam, err = family.Digital(fam.Name(), ls.Sample, rule); err != nil {
-			return loop.Loop{}, &InputError{Flag: "--ctrl", Key: "loop.controller", Err: err}
-		}
-	} else if inZ {
-		return loop.Loop{}, inputErr("--plant", "loop.plant", strconv.Quote(ls.Plant), "a plant in z needs the sample time: give --sample T")
 	}
 	l := loop.New(plant, fam)
 	if n, d := l.Open(); max(len(n), len(d))-1 > MaxDegree {

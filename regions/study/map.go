@@ -20,13 +20,17 @@ type MapJob struct {
 	setup plane.Setup
 	plant string
 	units Units
+	// spec is the loop as given; sampled its sampling, nil for a
+	// continuous-time loop.
+	spec    LoopSpec
+	sampled *Sampling
 }
 
 // NewMap checks a validated scenario and builds its loop and plane. Errors
 // are *InputError values.
 func NewMap(sc scenario.Scenario) (*MapJob, error) {
 	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit,
-		Sample: sc.Loop.Sample, Integral: sc.Loop.Integral}
+		Sample: sc.Loop.Sample, Integral: sc.Loop.Integral, Prewarp: sc.Loop.Prewarp}
 	l, err := ls.Build()
 	if err != nil {
 		return nil, err
@@ -37,7 +41,7 @@ func NewMap(sc scenario.Scenario) (*MapJob, error) {
 	if err != nil {
 		return nil, inputErr("--x", "axes.x", axisText(x)+" --y "+axisText(y), "%v", err)
 	}
-	return &MapJob{sc: sc, setup: s, plant: ls.PlantText(), units: Units{ls.TimeUnit}}, nil
+	return &MapJob{sc: sc, setup: s, plant: ls.PlantText(), units: Units{ls.TimeUnit}, spec: ls, sampled: sampledOf(l, ls)}, nil
 }
 
 func axisText(a plane.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }
@@ -86,6 +90,12 @@ type MapResult struct {
 	Overlays *Overlays
 	// Units labels frequencies, decay rates and periods.
 	Units Units
+	// Sampled describes the sampling of a sampled-data loop; nil for a
+	// continuous-time one.
+	Sampled *Sampling
+	// Compare holds the edges of the same window at other sample times,
+	// when the scenario asks for them (see compareSamples).
+	Compare []SampleEdges
 }
 
 // Run computes the map, its edges and the overlays the scenario asks for.
@@ -105,7 +115,7 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 	res := &MapResult{
 		Plant: j.plant, Controller: s.Family.Name(), Formula: s.Family.Formula(),
 		Fixed: valuesOf(s.Loop, s.XIndex, s.YIndex), X: s.X, Y: s.Y,
-		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{}, Units: j.units,
+		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{}, Units: j.units, Sampled: j.sampled,
 	}
 	for _, c := range curves {
 		// A crossing no other joins is a point, not an edge.
@@ -114,6 +124,9 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 		}
 	}
 	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
+		return nil, err
+	}
+	if res.Compare, err = j.compareSamples(ctx, opt); err != nil {
 		return nil, err
 	}
 	return res, nil
@@ -144,13 +157,11 @@ func (r *MapResult) Data() *export.Region {
 	for _, v := range r.Fixed {
 		doc.Fixed[v.Name] = v.Value
 	}
-	for _, c := range r.Curves {
-		b := export.Boundary{Kind: c.Kind, Points: make([][3]export.Number, len(c.Points))}
-		for k, p := range c.Points {
-			b.Points[k] = [3]export.Number{export.Number(p.X), export.Number(p.Y), export.Number(p.Omega)}
-		}
-		doc.Boundaries = append(doc.Boundaries, b)
+	if r.Sampled != nil {
+		doc.SampleTime, doc.Integral = r.Sampled.T, r.Sampled.Integral
 	}
+	doc.Compare = compareData(r.Compare)
+	doc.Boundaries = boundaries(r.Curves)
 	st := r.Stats
 	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, MarginalNodes: st.Marginal, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
 	if st.Stable > 0 {

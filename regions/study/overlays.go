@@ -74,12 +74,12 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	}
 	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0}
 	if wantMs {
-		ev, err := msEvaluator(s)
+		ms, err := msOverlay(s)
 		if err != nil {
 			return nil, err
 		}
-		o.Sensitivity = ev.Ms
-		o.Exact = refinedMs
+		o.Sensitivity = ms
+		o.Exact = refinedMs(s.Plant.Sample)
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -140,14 +140,23 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	return res, nil
 }
 
-// refinedMs is Ms as the probe computes it (margins.Loop.Margins), with
-// which the searches check the points they return.
-func refinedMs(num, den poly.Poly) float64 {
-	m, err := margins.Loop{Num: num.Clone(), Den: den.Clone()}.Margins()
-	if err != nil {
-		return math.NaN()
+// refinedMs returns Ms as the probe computes it (margins.Loop.Margins, or
+// SampledLoop.Margins for a loop sampled every T > 0), with which the
+// searches check the points they return.
+func refinedMs(T float64) overlay.Sensitivity {
+	return func(num, den poly.Poly) float64 {
+		var m margins.Margins
+		var err error
+		if T > 0 {
+			m, err = margins.SampledLoop{Num: num.Clone(), Den: den.Clone(), T: T}.Margins()
+		} else {
+			m, err = margins.Loop{Num: num.Clone(), Den: den.Clone()}.Margins()
+		}
+		if err != nil {
+			return math.NaN()
+		}
+		return m.Ms
 	}
-	return m.Ms
 }
 
 // onWindowEdge reports whether (x, y) lies on a side of the window, to
@@ -208,14 +217,13 @@ func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
 func pointAt(s plane.Setup, x, y float64) (export.Point, error) {
 	l := s.At(x, y)
 	p := export.Point{Values: valueMap(l), X: export.Number(x), Y: export.Number(y)}
-	poles, err := margins.Poles(l.Characteristic())
-	if err != nil {
+	var doc export.Probe
+	if err := poleFigures(&doc, l.Characteristic(), l.Plant.Sample); err != nil {
 		return p, err
 	}
-	p.Decay, p.Damping = export.Number(margins.DecayRate(poles)), export.Number(margins.MinDamping(poles))
-	p.Stable = margins.DecayRate(poles) > 0
-	num, den := l.Open()
-	mg, err := margins.Loop{Num: num, Den: den}.Margins()
+	p.Decay, p.Damping = export.Number(doc.DecayRate), export.Number(doc.MinDamping)
+	p.Stable = doc.DecayRate > 0
+	mg, err := loopMargins(l)
 	p.Ms = export.Number(math.NaN())
 	if err == nil && p.Stable {
 		p.Ms = export.Number(mg.Ms)

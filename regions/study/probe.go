@@ -6,7 +6,6 @@ import (
 	"math"
 
 	"gainscape/regions/export"
-	"gainscape/regions/family"
 	"gainscape/regions/loop"
 	"gainscape/regions/margins"
 	"gainscape/regions/stability"
@@ -31,6 +30,9 @@ type ProbeReport struct {
 	Values  []Value
 	// Units labels frequencies, decay rates and periods.
 	Units Units
+	// Sampled describes the sampling of a sampled-data loop; nil for a
+	// continuous-time one.
+	Sampled *Sampling
 }
 
 // Probe computes the report for one design point: the stability test's
@@ -52,13 +54,18 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(),
 		Values: valueMap(l), Characteristic: char.Descending(), Caution: Caution,
 	}
+	sampling := sampledOf(l, req.Loop)
+	if sampling != nil {
+		doc.SampleTime, doc.Integral = sampling.T, sampling.Integral
+	}
 	rep := l.Test().Report(l.Function())
 	if rep.Unstable < 0 {
-		return nil, fmt.Errorf("the sign-array test cannot decide this point: %s", rep.Reason)
+		return nil, fmt.Errorf("the %s cannot decide this point: %s", l.Test().Name(), rep.Reason)
 	}
 	for _, r := range rep.Table {
-		doc.SignArray = append(doc.SignArray, export.SignRow{Power: r.Power, Entries: r.Entries, Epsilon: r.Epsilon, Auxiliary: r.Auxiliary})
+		doc.SignArray = append(doc.SignArray, export.SignRow{Label: r.Label, Power: r.Power, Entries: r.Entries, Epsilon: r.Epsilon, Auxiliary: r.Auxiliary})
 	}
+	doc.TestNotes = rep.Notes
 	if rep.Auxiliary != nil {
 		doc.Aux = rep.Auxiliary.Descending()
 	}
@@ -66,17 +73,10 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	doc.CountFrom = rep.Method
 	doc.JWOmegas = append([]float64{}, rep.Omegas...)
 
-	poles, err := margins.Poles(char)
-	if err != nil {
+	if err := poleFigures(doc, char, l.Plant.Sample); err != nil {
 		return nil, err
 	}
-	for _, p := range poles {
-		doc.Poles = append(doc.Poles, [2]float64{real(p), imag(p)})
-	}
-	doc.DecayRate, doc.MinDamping = margins.DecayRate(poles), margins.MinDamping(poles)
-
-	num, den := l.Open()
-	mg, err := margins.Loop{Num: num, Den: den}.Margins()
+	mg, err := loopMargins(l)
 	if err != nil {
 		return nil, err
 	}
@@ -104,28 +104,30 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if doc.Fragility, err = fragility(ctx, l, req.X, req.Y); err != nil {
 		return nil, err
 	}
-	if doc.Ultimate, err = ultimate(l); err != nil {
+	if doc.Ultimate, err = ultimate(l, sampling); err != nil {
 		return nil, err
 	}
-	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}, nil
+	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units, Sampled: sampling}, nil
 }
 
 // ultimate returns the ultimate gain and period of the proportional-only
 // loop and the settings of the ultimate-cycle rules, each checked with
-// the loop's stability test; nil when the loop has no ultimate gain.
-func ultimate(l loop.Loop) (*export.Ultimate, error) {
-	ku, tu, ok := margins.Ultimate(l.Plant.Num, l.Plant.Den, l.Test())
-	if !ok {
+// the loop's stability test; nil when the loop has no ultimate gain. For
+// a sampled loop (sampling not nil) the rules set the digital controller
+// of the same structure (see ultimateGain).
+func ultimate(l loop.Loop, sampling *Sampling) (*export.Ultimate, error) {
+	u := ultimateGain(l)
+	if u == nil {
 		return nil, nil
 	}
-	u := &export.Ultimate{Ku: ku, Tu: tu, RulesApply: true}
+	ku, tu := u.Ku, u.Tu
 	if rhp := openLoopUnstable(l); rhp > 0 {
 		u.RulesApply = false
-		u.Note = fmt.Sprintf("the plant has %d pole(s) in the right half plane; the ultimate-cycle rules were made for plants stable in open loop and do not apply", rhp)
+		u.Note = fmt.Sprintf("the plant has %d pole(s) %s; the ultimate-cycle rules were made for plants stable in open loop and do not apply", rhp, unstableSide(l))
 	}
 	for _, r := range margins.UltimateCycleRules(ku, tu) {
 		rule := export.Rule{Name: r.Name, Source: r.Source, Family: r.Family, Kp: r.Kp, Ki: r.Ki, Kd: r.Kd}
-		fam, err := family.Lookup(r.Family)
+		fam, err := ruleFamily(r.Family, sampling)
 		if err != nil {
 			return nil, err
 		}

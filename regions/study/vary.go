@@ -28,6 +28,9 @@ type VaryReport struct {
 	// parameters in family order.
 	Formula string
 	Fixed   []Value
+	// Sampled describes the sampling of a sampled-data loop; nil for a
+	// continuous-time one.
+	Sampled *Sampling
 	// Intervals are the stable intervals, ascending.
 	Intervals []Interval
 }
@@ -57,10 +60,14 @@ func Vary(req VaryRequest) (*VaryReport, error) {
 		return nil, &InputError{Flag: "--vary", Value: fmt.Sprintf("%q", req.Text), Err: err}
 	}
 	units := Units{req.Loop.TimeUnit}
-	rep := &VaryReport{Formula: l.Family.Formula(), Fixed: valuesOf(l, idx)}
+	T := l.Plant.Sample
+	rep := &VaryReport{Formula: l.Family.Formula(), Fixed: valuesOf(l, idx), Sampled: sampledOf(l, req.Loop)}
 	rep.Doc = &export.Vary{
 		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(), Param: ax.Param, Min: ax.Min, Max: ax.Max,
 		Fixed: valueMap(l, idx), Intervals: []export.Interval{}, Caution: Caution,
+	}
+	if rep.Sampled != nil {
+		rep.Doc.SampleTime, rep.Doc.Integral = rep.Sampled.T, rep.Sampled.Integral
 	}
 	for _, iv := range ivs {
 		rep.Doc.Intervals = append(rep.Doc.Intervals, export.Interval{
@@ -68,12 +75,13 @@ func Vary(req VaryRequest) (*VaryReport, error) {
 			LoOmega: export.Number(iv.LoOmega), HiOmega: export.Number(iv.HiOmega),
 		})
 		// Adding zero turns a negative zero from the search into +0.
-		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega, units), HiEnd: endText(iv.HiKind, iv.HiOmega, units)})
+		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega, units, T), HiEnd: endText(iv.HiKind, iv.HiOmega, units, T)})
 	}
 	return rep, nil
 }
 
-// endKind names an interval end for JSON: a boundary kind, or "window".
+// endKind names an interval end for JSON: a boundary kind ("alternating"
+// for a real root through z = −1 of a sampled loop), or "window".
 func endKind(k stability.Kind) string {
 	if k == intervals.Window {
 		return "window"
@@ -81,8 +89,12 @@ func endKind(k stability.Kind) string {
 	return k.String()
 }
 
-// endText says in words how the loop loses stability at an interval end.
-func endText(k stability.Kind, omega float64, u Units) string {
+// endText says in words how the loop loses stability at an interval end;
+// T is the sample time of a sampled loop, 0 for a continuous one.
+func endText(k stability.Kind, omega float64, u Units, T float64) string {
+	if T > 0 {
+		return circleEndText(k, omega, u, T)
+	}
 	switch k {
 	case stability.Real:
 		return "a real root crosses through s = 0 (the loop drifts away, ω = 0)"
