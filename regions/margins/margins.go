@@ -140,7 +140,12 @@ const (
 // neighbouring grid points, to 1e-10 in ln ω; the largest of the refined
 // peaks and the two ends is reported.
 //
-// It returns an error for non-finite coefficients or a zero Den.
+// A loop with dead time is scanned on a finer grid, and its phase
+// crossovers are listed only up to a frequency past which they no longer
+// matter: see Loop.Delay's notes in delay.go.
+//
+// It returns an error for non-finite coefficients, a zero Den or a dead
+// time that is negative or not finite.
 func (l Loop) Margins() (Margins, error) {
 	if !l.Num.Finite() || !l.Den.Finite() {
 		return Margins{}, fmt.Errorf("margins: loop coefficients are not finite")
@@ -148,8 +153,11 @@ func (l Loop) Margins() (Margins, error) {
 	if l.Den.Degree() < 0 {
 		return Margins{}, fmt.Errorf("margins: the loop denominator is zero")
 	}
+	if !(l.Delay >= 0) || math.IsInf(l.Delay, 1) {
+		return Margins{}, fmt.Errorf("margins: the dead time %g is not a finite non-negative number", l.Delay)
+	}
 	lo, hi, roots := l.rangeAndRoots()
-	w := scanGrid(lo, hi, roots)
+	w, top := l.scan(lo, hi, roots)
 	ev := make([]point, len(w))
 	for i, x := range w {
 		ev[i] = l.point(x)
@@ -158,7 +166,7 @@ func (l Loop) Margins() (Margins, error) {
 		GainMargin: math.Inf(1), PhaseCrossover: math.NaN(),
 		PhaseMargin: math.Inf(1), GainCrossover: math.NaN(),
 	}
-	m.PhaseCrossings = l.phaseCrossings(w, ev)
+	m.PhaseCrossings = below(l.phaseCrossings(w, ev), top)
 	m.GainCrossings = l.gainCrossings(w, ev)
 	for _, c := range m.PhaseCrossings {
 		if math.Abs(math.Log(c.Margin)) < math.Abs(math.Log(m.GainMargin)) {
@@ -184,8 +192,7 @@ type point struct {
 }
 
 func (l Loop) point(w float64) point {
-	nr, ni := evalJW(l.Num, w)
-	dr, di := evalJW(l.Den, w)
+	nr, ni, dr, di := l.response(w)
 	an, ad := math.Hypot(nr, ni), math.Hypot(dr, di)
 	ac := math.Hypot(dr+nr, di+ni)
 	return point{
@@ -367,7 +374,7 @@ func (l Loop) ends() (s0, t0, sInf, tInf float64) {
 	if n0 == 0 && d0 == 0 {
 		s0, t0 = math.NaN(), math.NaN()
 	}
-	sInf, tInf = limitAtInfinity(l.Num, l.Den)
+	sInf, tInf = limitWithDelay(l.Num, l.Den, l.Delay)
 	return
 }
 
