@@ -56,6 +56,7 @@ type mapFlags struct {
 	marks          []string
 	best           string
 	msBound        float64
+	pade           int
 	demoLabel      string
 }
 
@@ -71,6 +72,7 @@ func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
 	fs.StringVar(&f.timeUnit, "time-unit", d.Loop.TimeUnit, "unit of time of s")
 	fs.Float64Var(&f.sample, "sample", 0, "sample time of a digital controller (0: continuous)")
 	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
+	fs.IntVar(&f.pade, "pade", d.Loop.Pade, "order of the Padé approximant a loop with dead time is compared with (0: chosen)")
 	fs.StringVar(&f.x, "x", axisText(d.Axes.X), "horizontal axis NAME=MIN:MAX")
 	fs.StringVar(&f.y, "y", axisText(d.Axes.Y), "vertical axis NAME=MIN:MAX")
 	fs.StringVar(&f.grid, "grid", fmt.Sprintf("%dx%d", d.Axes.Columns, d.Axes.Rows), "grid nodes NXxNY")

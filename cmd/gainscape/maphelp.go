@@ -28,6 +28,13 @@ Controller:
   --time-unit UNIT    the unit of time of s: s, ms, us, min or h (default s);
                       labels frequencies, decay rates and periods
                         --time-unit ms
+Dead time (a plant with one factor exp(-L*s)):
+  --pade N            the counts come from the quasi-polynomial itself; the
+                      window is also mapped with the delay replaced by its
+                      order-N Padé approximant (sign array), and the summary
+                      says where the two maps disagree; 0 (the default)
+                      chooses N from the largest ωL of the window
+                        --plant "2*exp(-1.5*s)/((4*s+1)*(s+1))" --pade 3
 Window:
   --x NAME=MIN:MAX    horizontal axis (default: the controller's first
                       parameter, 0:10)

@@ -43,10 +43,16 @@ Flags:
                         --vary kp=0:100
   --json              print one JSON object instead of text
                         --json
+  --pade N            for a plant with dead time exp(-L*s): the order of the
+                      Padé approximant the exact results are compared with
+                      (0, the default: chosen from the frequencies that
+                      matter at the point)
+                        --pade 3
 
 Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
   gainscape probe --plant "1/(s*(s+1)*(s+2))" --ctrl p --vary kp=0:100
+  gainscape probe --plant "exp(-s)/(s+1)" --ctrl p --set kp=2
   gainscape probe --num "3" --den "0.16, 1.3, 2.45, 2.5, 1" --ctrl pi --set kp=1,ki=0.3 --json
 `
 
@@ -55,6 +61,7 @@ type probeFlags struct {
 	x, y string
 	vary string
 	json bool
+	pade int
 }
 
 func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
@@ -73,6 +80,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
 	fs.BoolVar(&f.json, "json", false, "print JSON")
+	fs.IntVar(&f.pade, "pade", 0, "order of the Padé approximant a loop with dead time is compared with (0: chosen)")
 	if err := parseFlags(fs, args, probeHelp, stdout); err != nil {
 		return err
 	}
@@ -80,10 +88,13 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if err := padeFlag(f.pade); err != nil {
+		return err
+	}
 	if f.vary != "" {
 		return runVary(ls, f, stdout)
 	}
-	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y})
+	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y, Pade: f.pade})
 	if err != nil {
 		return err
 	}
@@ -100,8 +111,12 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	u := rep.Units
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
 	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
-	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
-	fmt.Fprintln(w, "Routh sign array (first column decides):")
+	if r.Delayed != nil {
+		printDelayWorking(w, r, u)
+	} else {
+		fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
+		fmt.Fprintln(w, "Routh sign array (first column decides):")
+	}
 	for _, row := range r.SignArray {
 		note := ""
 		switch {
@@ -119,7 +134,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  an entry that decides the count has no significant digit left in double precision;")
 		fmt.Fprintln(w, "  the count below is confirmed from the eigenvalues, all clear of the imaginary axis")
 	}
-	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
+	fmt.Fprintf(w, "  roots in the right half plane: %s; on the imaginary axis: %d", countText(r.RHP), r.JW)
 	if len(r.JWOmegas) > 0 {
 		fmt.Fprintf(w, " (ω = %s %s)", floatsText(r.JWOmegas), u.Freq())
 	}
@@ -133,7 +148,11 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	}
 	fmt.Fprintf(w, "  verdict: %s\n\n", verdict)
 
-	fmt.Fprintln(w, "Closed-loop poles:")
+	if r.Delayed != nil {
+		fmt.Fprintln(w, "Closed-loop poles: the rightmost roots of Δ (spectral collocation, polished by Newton's method on Δ):")
+	} else {
+		fmt.Fprintln(w, "Closed-loop poles:")
+	}
 	for _, p := range r.Poles {
 		if p[1] < 0 {
 			continue
@@ -158,6 +177,10 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 			if i > 0 {
 				head = "            "
 			}
+			if r.Delayed != nil && i == shownCrossovers {
+				fmt.Fprintf(w, "%s … %d more phase crossovers, one per turn of the delay (see --json)\n", head, len(r.GainMargins)-i)
+				break
+			}
 			change := "rise"
 			if g.Direction == "fall" {
 				change = "fall"
@@ -174,6 +197,13 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	band := "   (1.4–2.0 is the usual robustness band, common practice)"
 	if !r.Stable {
 		band = ""
+	}
+	for i, d := range r.DelayMargins {
+		head := "delay margin"
+		if i > 0 {
+			head = "            "
+		}
+		fmt.Fprintf(w, "%s %.4g %s of further dead time at the gain crossover ω = %.4g %s (phase margin %.4g°)\n", head, d.Extra, u.TimeLabel(), d.Freq, u.Freq(), d.PhaseMarginDeg)
 	}
 	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
 	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
@@ -195,6 +225,9 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  sources: Ziegler & Nichols, Trans. ASME 64 (1942); Tyreus & Luyben, Ind. Eng. Chem. Res. 31 (1992)")
 	} else {
 		fmt.Fprintln(w, "\nProportional-only loop: no finite ultimate gain with a sustained oscillation")
+	}
+	if pd := r.Pade; pd != nil {
+		fmt.Fprintf(w, "\nPadé cross-check: %s\n", pd.Note)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)
@@ -230,7 +263,7 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 	if err != nil {
 		return userErr("--vary: %v", err)
 	}
-	rep, err := study.Vary(study.VaryRequest{Loop: ls, Range: ax, Text: f.vary})
+	rep, err := study.Vary(study.VaryRequest{Loop: ls, Range: ax, Text: f.vary, Pade: f.pade})
 	if err != nil {
 		return err
 	}
@@ -250,6 +283,9 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 		fmt.Fprintf(w, "stable for %.10g < %s < %.10g\n", iv.Lo, ax.Param, iv.Hi)
 		fmt.Fprintf(w, "  lower end: %s\n", iv.LoEnd)
 		fmt.Fprintf(w, "  upper end: %s\n", iv.HiEnd)
+	}
+	if pd := rep.Doc.Pade; pd != nil {
+		fmt.Fprintf(w, "\nPadé cross-check: %s\n", pd.Note)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)

@@ -10,17 +10,29 @@ type Probe struct {
 	TimeUnit       string             `json:"time_unit"`
 	Values         map[string]float64 `json:"values"`
 	Characteristic []float64          `json:"characteristic"` // highest power first
-	SignArray      []SignRow          `json:"sign_array"`
-	Aux            []float64          `json:"auxiliary_polynomial,omitempty"`
-	Stable         bool               `json:"stable"`
-	CountFrom      string             `json:"count_from"`
-	RHP            int                `json:"rhp"`
-	JW             int                `json:"jw_roots"`
-	JWOmegas       []float64          `json:"jw_omegas"`
-	DegreeDrop     int                `json:"degree_drop"`
-	Poles          [][2]float64       `json:"poles"`
-	DecayRate      float64            `json:"decay_rate"`
-	MinDamping     float64            `json:"min_damping"`
+	// Delay, Delayed: for a loop with dead time, the characteristic
+	// function is Characteristic(s) + Delayed(s)·e^(−Delay·s).
+	Delay     float64   `json:"delay,omitempty"`
+	Delayed   []float64 `json:"characteristic_delayed,omitempty"`
+	SignArray []SignRow `json:"sign_array"`
+	// Working is the test's working where it is not a sign array (the
+	// bands of the argument principle for a loop with dead time), with
+	// its notes.
+	Working    []WorkingRow `json:"working,omitempty"`
+	TestNotes  []string     `json:"test_notes,omitempty"`
+	Neutral    *Neutral     `json:"neutral,omitempty"`
+	Aux        []float64    `json:"auxiliary_polynomial,omitempty"`
+	Stable     bool         `json:"stable"`
+	CountFrom  string       `json:"count_from"`
+	RHP        int          `json:"rhp"`
+	JW         int          `json:"jw_roots"`
+	JWOmegas   []float64    `json:"jw_omegas"`
+	DegreeDrop int          `json:"degree_drop"`
+	Poles      [][2]float64 `json:"poles"`
+	// PolesFrom names the method the poles come from.
+	PolesFrom  string `json:"poles_from"`
+	DecayRate  Number `json:"decay_rate"`
+	MinDamping Number `json:"min_damping"`
 	// GainMargin is the gain margin nearest 0 dB, as a factor; GainMargins
 	// lists every phase crossover with its margin.
 	GainMargin     Number       `json:"gain_margin"`
@@ -33,12 +45,20 @@ type Probe struct {
 	MsFreq         Number       `json:"ms_freq"`
 	Mt             float64      `json:"mt"`
 	MtFreq         Number       `json:"mt_freq"`
+	// DelayMargins lists, for each gain crossover, the further dead time
+	// the loop tolerates; DelayMargin is the smallest (null with no gain
+	// crossover). Continuous-time loops only.
+	DelayMargins []DelayMargin `json:"delay_margins,omitempty"`
+	DelayMargin  Number        `json:"delay_margin"`
 	// Robustness says whether the margins and Ms are robustness figures:
 	// only for a stable loop are they distances to instability.
 	Robustness string     `json:"robustness"`
 	Fragility  *Fragility `json:"fragility,omitempty"`
 	Ultimate   *Ultimate  `json:"ultimate,omitempty"`
-	Caution    string     `json:"caution"`
+	// Pade compares the point with its Padé-approximated loop (dead time
+	// only).
+	Pade    *PadeProbe `json:"pade,omitempty"`
+	Caution string     `json:"caution"`
 }
 
 // GainMargin is the margin of one phase crossover (arg L = −180°): the
@@ -86,9 +106,11 @@ type NearestEdge struct {
 // Ultimate is the ultimate gain and period of the proportional-only loop
 // and the tuning rules computed from them.
 type Ultimate struct {
-	Ku    float64 `json:"ku"`
-	Tu    float64 `json:"tu"`
-	Rules []Rule  `json:"rules"`
+	Ku float64 `json:"ku"`
+	Tu float64 `json:"tu"`
+	// From names the method that found Ku.
+	From  string `json:"from,omitempty"`
+	Rules []Rule `json:"rules"`
 	// RulesApply is false, with Note saying why, where the rules were not
 	// made for the plant (one that is unstable in open loop).
 	RulesApply bool   `json:"rules_apply"`
@@ -120,7 +142,10 @@ type Vary struct {
 	Max        float64            `json:"max"`
 	Fixed      map[string]float64 `json:"fixed"`
 	Intervals  []Interval         `json:"intervals"`
-	Caution    string             `json:"caution"`
+	// Pade compares the intervals with those of the Padé-approximated
+	// loop (dead time only).
+	Pade    *PadeVary `json:"pade,omitempty"`
+	Caution string    `json:"caution"`
 }
 
 // Interval is one stable interval (Lo, Hi) and how each end is reached.

@@ -24,7 +24,8 @@ import (
 // logarithmic grid (a gain margin of 60 dB), and at least 4π/L, so that
 // the first two turns of the delay are always covered; never beyond the
 // scanned range, and with at most maxDelayPoints added points (top is
-// lowered to keep to it). Phase crossovers above top are not listed. And
+// lowered to keep to it). Phase crossovers above top are not looked for,
+// and of those found only the lowest maxListed are listed. And
 // the limits as ω → ∞ of |S| and |T| become upper limits when Num and Den
 // have the same degree (the neutral type): |S(jω)| then keeps swinging
 // between |a|/(|a| + |b|) and |a|/(|a| − |b|), a and b the leading
@@ -97,6 +98,22 @@ func linearPoints(lo, top, step float64) []float64 {
 		out[i] = start + float64(i)*step
 	}
 	return out
+}
+
+// maxListed is the most phase crossovers listed for a loop with dead
+// time, the lowest in frequency: above them the gain margins only grow
+// for a loop whose gain falls with frequency, and a person reads a
+// dozen.
+const maxListed = 12
+
+// listed returns the phase crossovers Margins lists: for a loop with dead
+// time the lowest maxListed of them, once the reported gain margin has
+// been chosen among all.
+func (l Loop) listed(cs []Crossing) []Crossing {
+	if l.Delay == 0 || len(cs) <= maxListed {
+		return cs
+	}
+	return cs[:maxListed]
 }
 
 // below returns the crossings at frequencies up to top.

@@ -37,7 +37,8 @@ type Margins struct {
 	GainCrossover float64
 	// PhaseCrossings lists every phase crossover (arg L = −180°, that is
 	// Im L = 0 with Re L < 0), ascending, with its gain margin. A crossing
-	// at ω = 0 (L(0) real negative) is included.
+	// at ω = 0 (L(0) real negative) is included. A loop with dead time has
+	// infinitely many: the lowest twelve are listed (see delay.go).
 	PhaseCrossings []Crossing
 	// GainCrossings lists every gain crossover (|L| = 1), ascending, with
 	// its phase margin.
@@ -173,6 +174,7 @@ func (l Loop) Margins() (Margins, error) {
 			m.GainMargin, m.PhaseCrossover = c.Margin, c.Freq
 		}
 	}
+	m.PhaseCrossings = l.listed(m.PhaseCrossings)
 	for _, c := range m.GainCrossings {
 		if math.Abs(c.Margin) < math.Abs(m.PhaseMargin) {
 			m.PhaseMargin, m.GainCrossover = c.Margin, c.Freq

@@ -181,8 +181,9 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			TimeUnit    intoString  `toml:"time_unit"`
 			Sample      intoNumber  `toml:"sample"`
 			Integral    intoString  `toml:"integral"`
+			Pade        intoInt     `toml:"pade"`
 		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit},
-			intoNumber{&l.Sample}, intoString{&l.Integral}},
+			intoNumber{&l.Sample}, intoString{&l.Integral}, intoInt{&l.Pade}},
 		"axes": &struct {
 			X    intoAxis `toml:"x"`
 			Y    intoAxis `toml:"y"`

@@ -61,6 +61,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 	fmt.Fprintf(&b, "time_unit = %s    # the unit of time of s: labels only\n", quote(l.TimeUnit))
 	fmt.Fprintf(&b, "sample = %s    # sample time of a digital controller; 0: continuous\n", formatNumber(l.Sample))
 	fmt.Fprintf(&b, "integral = %s    # a digital integral: backward, forward or trapezoid\n", quote(l.Integral))
+	fmt.Fprintf(&b, "pade = %d    # Padé order of the cross-check of a loop with dead time; 0: chosen\n", l.Pade)
 
 	a := s.Axes
 	b.WriteString("\n[axes]\n")

@@ -22,6 +22,7 @@ var overrides = []struct {
 	{"time-unit", []string{"loop.time_unit"}, func(s, o *Scenario) { s.Loop.TimeUnit = o.Loop.TimeUnit }},
 	{"sample", []string{"loop.sample"}, func(s, o *Scenario) { s.Loop.Sample = o.Loop.Sample }},
 	{"integral", []string{"loop.integral"}, func(s, o *Scenario) { s.Loop.Integral = o.Loop.Integral }},
+	{"pade", []string{"loop.pade"}, func(s, o *Scenario) { s.Loop.Pade = o.Loop.Pade }},
 	{"set", nil, func(s, o *Scenario) { s.Fixed = mergeValues(s.Fixed, o.Fixed) }},
 	{"x", []string{"axes.x"}, func(s, o *Scenario) { s.Axes.X = o.Axes.X }},
 	{"y", []string{"axes.y"}, func(s, o *Scenario) { s.Axes.Y = o.Axes.Y }},

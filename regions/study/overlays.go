@@ -79,7 +79,7 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 			return nil, err
 		}
 		o.Sensitivity = ev.Ms
-		o.Exact = refinedMs
+		o.Exact = refinedMs(s.Plant.Delay)
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -140,14 +140,17 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	return res, nil
 }
 
-// refinedMs is Ms as the probe computes it (margins.Loop.Margins), with
-// which the searches check the points they return.
-func refinedMs(num, den poly.Poly) float64 {
-	m, err := margins.Loop{Num: num.Clone(), Den: den.Clone()}.Margins()
-	if err != nil {
-		return math.NaN()
+// refinedMs returns Ms as the probe computes it (margins.Loop.Margins),
+// for loops with the given dead time, with which the searches check the
+// points they return.
+func refinedMs(delay float64) overlay.Sensitivity {
+	return func(num, den poly.Poly) float64 {
+		m, err := margins.Loop{Num: num.Clone(), Den: den.Clone(), Delay: delay}.Margins()
+		if err != nil {
+			return math.NaN()
+		}
+		return m.Ms
 	}
-	return m.Ms
 }
 
 // onWindowEdge reports whether (x, y) lies on a side of the window, to
@@ -171,7 +174,7 @@ func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
 			roots = append(roots, r...)
 		}
 	}
-	return margins.NewMsEvaluatorNear(lo, hi, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots)
+	return margins.NewMsEvaluatorDelay(lo, hi, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots, s.Plant.Delay)
 }
 
 // markPoint places a mark in the plane: it must give both axis
@@ -208,14 +211,14 @@ func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
 func pointAt(s plane.Setup, x, y float64) (export.Point, error) {
 	l := s.At(x, y)
 	p := export.Point{Values: valueMap(l), X: export.Number(x), Y: export.Number(y)}
-	poles, err := margins.Poles(l.Characteristic())
-	if err != nil {
+	var pr export.Probe
+	if err := probePoles(&pr, l, l.Function()); err != nil {
 		return p, err
 	}
-	p.Decay, p.Damping = export.Number(margins.DecayRate(poles)), export.Number(margins.MinDamping(poles))
-	p.Stable = margins.DecayRate(poles) > 0
+	p.Decay, p.Damping = pr.DecayRate, pr.MinDamping
+	p.Stable = pr.DecayRate > 0
 	num, den := l.Open()
-	mg, err := margins.Loop{Num: num, Den: den}.Margins()
+	mg, err := margins.Loop{Num: num, Den: den, Delay: l.Plant.Delay}.Margins()
 	p.Ms = export.Number(math.NaN())
 	if err == nil && p.Stable {
 		p.Ms = export.Number(mg.Ms)

@@ -19,6 +19,9 @@ import (
 type ProbeRequest struct {
 	Loop LoopSpec
 	X, Y string
+	// Pade is the order of the Padé approximant a loop with dead time is
+	// compared with; 0 chooses it (padeProbe).
+	Pade int
 }
 
 // ProbeReport is everything probe says about one design point.
@@ -43,22 +46,23 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if err != nil {
 		return nil, err
 	}
-	char := l.Characteristic()
-	if !char.Finite() {
+	f := l.Function()
+	if !f.P.Finite() || !f.Q.Finite() {
 		return nil, inputErr("--set", "fixed", "", "the characteristic polynomial has non-finite coefficients")
 	}
 	units := Units{req.Loop.TimeUnit}
 	doc := &export.Probe{
 		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(),
-		Values: valueMap(l), Characteristic: char.Descending(), Caution: Caution,
+		Values: valueMap(l), Characteristic: f.P.Descending(), Caution: Caution,
 	}
-	rep := l.Test().Report(l.Function())
+	if !f.Rational() {
+		doc.Delay, doc.Delayed = f.Delay, f.Q.Descending()
+	}
+	rep := l.Test().Report(f)
 	if rep.Unstable < 0 {
-		return nil, fmt.Errorf("the sign-array test cannot decide this point: %s", rep.Reason)
+		return nil, fmt.Errorf("the %s cannot decide this point: %s", l.Test().Name(), rep.Reason)
 	}
-	for _, r := range rep.Table {
-		doc.SignArray = append(doc.SignArray, export.SignRow{Power: r.Power, Entries: r.Entries, Epsilon: r.Epsilon, Auxiliary: r.Auxiliary})
-	}
+	probeWorking(doc, rep, f)
 	if rep.Auxiliary != nil {
 		doc.Aux = rep.Auxiliary.Descending()
 	}
@@ -66,19 +70,18 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	doc.CountFrom = rep.Method
 	doc.JWOmegas = append([]float64{}, rep.Omegas...)
 
-	poles, err := margins.Poles(char)
-	if err != nil {
+	if err := probePoles(doc, l, f); err != nil {
 		return nil, err
 	}
-	for _, p := range poles {
-		doc.Poles = append(doc.Poles, [2]float64{real(p), imag(p)})
-	}
-	doc.DecayRate, doc.MinDamping = margins.DecayRate(poles), margins.MinDamping(poles)
 
 	num, den := l.Open()
-	mg, err := margins.Loop{Num: num, Den: den}.Margins()
+	mg, err := margins.Loop{Num: num, Den: den, Delay: l.Plant.Delay}.Margins()
 	if err != nil {
 		return nil, err
+	}
+	doc.DelayMargin = export.Number(math.NaN())
+	if l.Plant.Sample == 0 {
+		doc.DelayMargins, doc.DelayMargin = delayMargins(mg)
 	}
 	doc.GainMargin, doc.PhaseCrossover = export.Number(mg.GainMargin), export.Number(mg.PhaseCrossover)
 	doc.GainMargins = []export.GainMargin{}
@@ -107,6 +110,11 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if doc.Ultimate, err = ultimate(l); err != nil {
 		return nil, err
 	}
+	if l.Plant.Delay > 0 {
+		if doc.Pade, err = padeProbe(l, doc, mg, req.Pade); err != nil {
+			return nil, err
+		}
+	}
 	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}, nil
 }
 
@@ -114,11 +122,11 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 // loop and the settings of the ultimate-cycle rules, each checked with
 // the loop's stability test; nil when the loop has no ultimate gain.
 func ultimate(l loop.Loop) (*export.Ultimate, error) {
-	ku, tu, ok := margins.Ultimate(l.Plant.Num, l.Plant.Den, l.Test())
-	if !ok {
-		return nil, nil
+	ku, tu, ok, from, err := ultimateWithDelay(l)
+	if err != nil || !ok {
+		return nil, err
 	}
-	u := &export.Ultimate{Ku: ku, Tu: tu, RulesApply: true}
+	u := &export.Ultimate{Ku: ku, Tu: tu, From: from, RulesApply: true}
 	if rhp := openLoopUnstable(l); rhp > 0 {
 		u.RulesApply = false
 		u.Note = fmt.Sprintf("the plant has %d pole(s) in the right half plane; the ultimate-cycle rules were made for plants stable in open loop and do not apply", rhp)
@@ -140,7 +148,8 @@ func ultimate(l loop.Loop) (*export.Ultimate, error) {
 				rl.Values[i] = r.Kd
 			}
 		}
-		v := rl.Test().NewCounter(len(rl.Characteristic())).Count(rl.Function())
+		f := rl.Function()
+		v := rl.Test().NewCounter(max(len(f.P), len(f.Q))).Count(f)
 		rule.Stable, rule.RHP = v.Stable(), max(v.Unstable, 0)
 		u.Rules = append(u.Rules, rule)
 	}
