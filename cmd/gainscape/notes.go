@@ -63,7 +63,10 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g %s\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
-		fmt.Fprintf(&b, "- %d nodes could not be decided by the sign-array test\n", st.Undecided)
+		fmt.Fprintf(&b, "- %d nodes could not be decided by the stability test\n", st.Undecided)
+	}
+	for _, l := range deadTimeLines(res) {
+		fmt.Fprintf(&b, "- %s: %s\n", strings.ToUpper(l[0][:1])+l[0][1:], l[1])
 	}
 	for _, p := range points(res) {
 		if p.Failed != "" {

@@ -46,7 +46,10 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g %s along the complex-pair edges\n", lo, hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
-		fmt.Fprintf(w, "undecided   %d nodes where the sign array could not be trusted (drawn hatched)\n", st.Undecided)
+		fmt.Fprintf(w, "undecided   %d nodes where the stability test could not be trusted (drawn hatched)\n", st.Undecided)
+	}
+	for _, l := range deadTimeLines(res) {
+		fmt.Fprintf(w, "%-11s %s\n", l[0], l[1])
 	}
 	for _, p := range points(res) {
 		if p.Failed != "" {

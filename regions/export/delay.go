@@ -107,9 +107,10 @@ type PadeMap struct {
 // Displacement is how far the approximate stability edge lies from the
 // exact one along one grid line.
 type Displacement struct {
-	// Along names the axis parameter the line runs along; At is the value
-	// of the other parameter on it.
+	// Along names the axis parameter the line runs along; On names the
+	// other axis parameter and At its value on the line.
 	Along string  `json:"along"`
+	On    string  `json:"on"`
 	At    float64 `json:"at"`
 	// Distance is in units of Along, Share the distance over the
 	// window's span in Along.

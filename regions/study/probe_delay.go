@@ -82,13 +82,31 @@ func probeWorking(doc *export.Probe, rep stability.Report, f stability.Function)
 	doc.Neutral = neutralOf(f)
 }
 
+// leadRatio returns |q_n/p_n| for a loop with dead time whose delayed and
+// delay-free parts have one degree n (leading coefficients that are
+// exactly zero left out), and whether they have: the neutral type. It
+// does not allocate.
+func leadRatio(f stability.Function) (float64, bool) {
+	top := func(p []float64) int {
+		n := len(p) - 1
+		for n >= 0 && p[n] == 0 {
+			n--
+		}
+		return n
+	}
+	n, m := top(f.P), top(f.Q)
+	if f.Rational() || n < 0 || n != m {
+		return 0, false
+	}
+	return math.Abs(f.Q[m] / f.P[n]), true
+}
+
 // neutralOf describes a loop of neutral type, nil for any other.
 func neutralOf(f stability.Function) *export.Neutral {
-	P, Q := f.P.Clone().Trim(0), f.Q.Clone().Trim(0)
-	if f.Rational() || len(P) == 0 || len(P) != len(Q) {
+	r, ok := leadRatio(f)
+	if !ok {
 		return nil
 	}
-	r := math.Abs(Q[len(Q)-1] / P[len(P)-1])
 	n := &export.Neutral{Ratio: r, InfinitelyMany: r >= 1}
 	switch {
 	case r > 1:
