@@ -73,7 +73,7 @@ func deadTimeLines(res *study.MapResult) [][2]string {
 		}
 	}
 	if later > 0 {
-		out = append(out, [2]string{"branches", fmt.Sprintf("%d complex-pair edges lie on D-partition branches beyond the first (the Nyquist curve has turned once more before it passes −1); marked with rings", later)})
+		out = append(out, [2]string{"branches", fmt.Sprintf("%d complex-pair edges lie on D-partition branches beyond the first (the Nyquist curve has turned once more before it passes −1); marked with diamonds", later)})
 	}
 	if res.NeutralNodes > 0 {
 		out = append(out, [2]string{"neutral", fmt.Sprintf("%d nodes have infinitely many roots in the right half plane: neutral type with |lim L(s)| ≥ 1 as s → ∞ (for an ideal derivative, |kd·lim s·G(s)| ≥ 1)", res.NeutralNodes)})

@@ -18,6 +18,9 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 	title := sc.Output.Title
 	if title == "" {
 		title = fmt.Sprintf("G(s) = %s under %s", res.Plant, strings.ToUpper(res.Controller))
+		if res.Delay > 0 {
+			title += fmt.Sprintf(" (dead time %g %s)", res.Delay, res.Units.TimeLabel())
+		}
 	}
 	note := res.Formula
 	if fixed := study.ValuesText(res.Fixed); fixed != "" {
@@ -29,6 +32,14 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 	}
 	fig := render.Figure{Map: res.Map, Curves: res.Curves, Title: title, Notes: notes, FreqUnit: res.Units.Freq(),
 		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter, DPI: sc.Output.DPI}
+	for i, bs := range res.Branches {
+		for k, b := range bs {
+			if b > 0 {
+				p := res.Curves[i].Points[k]
+				fig.LaterBranches = append(fig.LaterBranches, render.BranchPoint{X: p.X, Y: p.Y})
+			}
+		}
+	}
 	ov := res.Overlays
 	if ov == nil {
 		return fig

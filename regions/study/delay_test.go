@@ -202,3 +202,65 @@ func TestProbeUnstablePlantWithDelay(t *testing.T) {
 		t.Errorf("ultimate %+v, want Ku %.10g with the rules marked as not applying", d.Ultimate, ku)
 	}
 }
+
+// TestPIRegionFirstOrderDeadTime checks the stable integral gains of PI on
+// k·e^(−Ls)/(Ts + 1) at several fixed kp against the characterisation of
+// G. J. Silva, A. Datta and S. P. Bhattacharyya, "PI stabilization of
+// first-order systems with time delay", Automatica 37 (2001) (as recalled:
+// the region is bounded by ki = 0 and the first arch of the D-partition
+// curve kp(ω) = (ωT·sin ωL − cos ωL)/k, ki(ω) = ω(sin ωL + ωT·cos ωL)/k,
+// ωL ∈ (0, α1), over the P range −1/k < kp < (T/(kL))·√(α1² + (L/T)²)):
+// at each kp the stable ki run from 0 to the least ki(ω) over the ω of
+// the first arch with kp(ω) = kp, found here by a fine scan and
+// bisection on the closed form. The upper end and its frequency must
+// agree to 1e-8; just outside the kp range no ki is stable.
+func TestPIRegionFirstOrderDeadTime(t *testing.T) {
+	for _, c := range []struct{ k, T, L float64 }{{1, 1, 1}, {2, 4, 1.5}, {0.5, 2, 3}} {
+		kpOf := func(w float64) float64 { return (w*c.T*math.Sin(w*c.L) - math.Cos(w*c.L)) / c.k }
+		kiOf := func(w float64) float64 { return w * (math.Sin(w*c.L) + w*c.T*math.Cos(w*c.L)) / c.k }
+		a1 := alphaOne(c.T / c.L)
+		kpLo, kpHi := -1/c.k, kpOf(a1/c.L)
+		plant := formatAll([]float64{c.k})[0] + "*exp(-" + formatAll([]float64{c.L})[0] + "*s)/(" + formatAll([]float64{c.T})[0] + "*s+1)"
+		vary := func(kp, top float64) []export.Interval {
+			rep, err := Vary(VaryRequest{Loop: LoopSpec{Plant: plant, Controller: "pi", Fixed: []spec.Value{{Param: "kp", V: kp}}},
+				Range: spec.Axis{Param: "ki", Min: 0, Max: top}, Text: "ki"})
+			if err != nil {
+				t.Fatal(err)
+			}
+			return rep.Doc.Intervals
+		}
+		for _, share := range []float64{0.1, 0.35, 0.6, 0.9} {
+			kp := kpLo + share*(kpHi-kpLo)
+			// The first-arch frequencies with kp(ω) = kp.
+			bound, at := math.Inf(1), math.NaN()
+			const steps = 4000
+			for i := 0; i < steps; i++ {
+				w0, w1 := a1/c.L*float64(i)/steps, a1/c.L*float64(i+1)/steps
+				if (kpOf(w0)-kp)*(kpOf(w1)-kp) > 0 {
+					continue
+				}
+				for range 100 {
+					m := 0.5 * (w0 + w1)
+					if (kpOf(w0)-kp)*(kpOf(m)-kp) <= 0 {
+						w1 = m
+					} else {
+						w0 = m
+					}
+				}
+				if w := 0.5 * (w0 + w1); kiOf(w) < bound {
+					bound, at = kiOf(w), w
+				}
+			}
+			ivs := vary(kp, 3*bound)
+			if len(ivs) != 1 || ivs[0].Lo != 0 || ivs[0].HiKind != "complex" ||
+				math.Abs(ivs[0].Hi-bound) > 1e-8*bound || math.Abs(float64(ivs[0].HiOmega)-at) > 1e-8*at {
+				t.Errorf("%s, kp = %.6g: intervals %+v, want (0, %.12g) ended at ω = %.12g", plant, kp, ivs, bound, at)
+			}
+		}
+		for _, kp := range []float64{kpLo - 0.05*(kpHi-kpLo), kpHi + 0.05*(kpHi-kpLo)} {
+			if ivs := vary(kp, 10); len(ivs) != 0 {
+				t.Errorf("%s, kp = %.6g outside the P range: intervals %+v", plant, kp, ivs)
+			}
+		}
+	}
+}

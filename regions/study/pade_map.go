@@ -184,8 +184,15 @@ func padeMapNote(p *export.PadeMap, nodes int, order string) string {
 		return order + ": the approximate map agrees with the exact one at every node"
 	}
 	s := fmt.Sprintf("%s: %d of %d nodes (%.3g%%) disagree on stability, %d on the count", order, p.Disagree, nodes, 100*float64(p.Disagree)/float64(nodes), p.CountDiffers)
-	if d := p.Largest; d != nil {
-		s += fmt.Sprintf("; the stability edge moves by up to %.4g in %s (%.3g%% of the window's span) on the line %s = %.4g", d.Distance, d.Along, 100*d.Share, d.On, d.At)
+	d := p.Largest
+	switch {
+	case d == nil:
+	case !d.Approximate.Valid():
+		s += fmt.Sprintf("; on the line %s = %.4g the exact stability edge at %s = %.4g has no counterpart in the approximate map: it has moved at least %.4g (%.3g%% of the window's span), out of the window", d.On, d.At, d.Along, float64(d.Exact), d.Distance, 100*d.Share)
+	case !d.Exact.Valid():
+		s += fmt.Sprintf("; on the line %s = %.4g the approximate map has a stability edge at %s = %.4g where the exact map has none: at least %.4g (%.3g%% of the window's span) off", d.On, d.At, d.Along, float64(d.Approximate), d.Distance, 100*d.Share)
+	default:
+		s += fmt.Sprintf("; the stability edge moves by up to %.4g in %s (%.3g%% of the window's span), from %.6g to %.6g on the line %s = %.4g", d.Distance, d.Along, 100*d.Share, float64(d.Exact), float64(d.Approximate), d.On, d.At)
 	}
 	return s
 }
