@@ -99,27 +99,25 @@ type PadeMap struct {
 	Disagree     int `json:"disagree_nodes"`
 	CountDiffers int `json:"count_differs_nodes"`
 	// Largest is the largest displacement of the stability edge along a
-	// grid line (see Displacement); nil when neither map has an edge.
+	// grid line (see Displacement); nil when either map has no stability
+	// edge in the window.
 	Largest *Displacement `json:"largest_displacement"`
 	Note    string        `json:"note"`
 }
 
 // Displacement is how far the approximate stability edge lies from the
-// exact one along one grid line.
+// exact one at its worst: the point of one map's edge farthest from the
+// other map's edge, and the nearest point there.
 type Displacement struct {
-	// Along names the axis parameter the line runs along; On names the
-	// other axis parameter and At its value on the line.
-	Along string  `json:"along"`
-	On    string  `json:"on"`
-	At    float64 `json:"at"`
-	// Distance is in units of Along, Share the distance over the
-	// window's span in Along.
-	Distance float64 `json:"distance"`
-	Share    float64 `json:"share"`
-	// Exact and Approximate are the positions of the two edges on the
-	// line (null where a map has no edge on it: the window end is used).
-	Exact       Number `json:"exact"`
-	Approximate Number `json:"approximate"`
+	// Exact and Approximate are the two points, [x, y].
+	Exact       [2]float64 `json:"exact"`
+	Approximate [2]float64 `json:"approximate"`
+	// DX and DY are Approximate − Exact in parameter units; Share is
+	// their length in the window scaled to a unit square (each axis
+	// divided by its span).
+	DX    float64 `json:"dx"`
+	DY    float64 `json:"dy"`
+	Share float64 `json:"share"`
 }
 
 // Confirmation is the check of a map's counts by a second method, at one

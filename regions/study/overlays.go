@@ -166,6 +166,9 @@ func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
 	centre := s.At(0.5*(s.X.Min+s.X.Max), 0.5*(s.Y.Min+s.Y.Max))
 	num, den := centre.Open()
 	lo, hi := margins.Loop{Num: num, Den: den}.FrequencyRange()
+	if s.Plant.Delay > 0 {
+		hi = delayMsTop(s, lo, hi)
+	}
 	// The plant's own resonances are the same at every node; the grid is
 	// enriched around them so that no narrow peak of |S| is missed.
 	var roots []complex128

@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
 
 	"gainscape/internal/pool"
 	"gainscape/regions/boundary"
@@ -25,14 +26,15 @@ const edgeSteps = 40
 // the corners and the centre of the window, times L), by the sign array,
 // and compares the two maps node by node: the nodes stable in one map and
 // not in the other, and those whose counts differ. The largest edge
-// displacement is measured along every grid row and column: on each
-// line, where the stability class changes between neighbouring nodes,
-// the edge is placed by bisection with each map's own test, and every
-// edge of one map is paired with the nearest edge of the other on the
-// line (the nearer end of the line where the other has none: the edge
-// must move at least that far to leave the window). The largest of these
-// distances as a share of the line's span is reported, with the line
-// and both positions. Lines are done in parallel and reduced in order.
+// displacement compares the two stability edges as sets of points: on
+// every grid row and column, where the stability class changes between
+// neighbouring nodes, the edge is placed by bisection with each map's own
+// test; the displacement is the largest distance from an edge point of
+// either map to the nearest edge point of the other (the Hausdorff
+// distance of the two sets), measured in the window scaled to a unit
+// square, and is reported with the two points. Lines are done in
+// parallel and reduced in order, so the result does not depend on the
+// worker count.
 func comparePade(ctx context.Context, s plane.Setup, m *grid.Map, curves []boundary.Curve, given, workers int) (*export.PadeMap, error) {
 	L := s.Plant.Delay
 	w := 0.0
@@ -77,33 +79,32 @@ func comparePade(ctx context.Context, s plane.Setup, m *grid.Map, curves []bound
 		}
 	}
 	nx, ny := m.XAxis.N, m.YAxis.N
-	found := make([]*export.Displacement, ny+nx)
+	exactLines, approxLines := make([][]edgePoint, ny+nx), make([][]edgePoint, ny+nx)
 	type worker struct {
 		exact, approx     stability.Counter
 		exactSc, approxSc *plane.Scratch
 	}
 	newWorker := func() worker { return worker{s.NewCounter(), ps.NewCounter(), s.NewScratch(), ps.NewScratch()} }
 	err = pool.Each(ctx, ny+nx, workers, nil, newWorker, func(wk worker, line int) {
-		e := lineEdges(s, wk.exact, wk.exactSc, m, line)
-		a := lineEdges(ps, wk.approx, wk.approxSc, pm, line)
-		found[line] = displacement(s, line, ny, e, a)
+		exactLines[line] = lineEdges(s, wk.exact, wk.exactSc, m, line)
+		approxLines[line] = lineEdges(ps, wk.approx, wk.approxSc, pm, line)
 	})
 	if err != nil {
 		return nil, err
 	}
-	for _, d := range found {
-		if d != nil && (out.Largest == nil || d.Share > out.Largest.Share) {
-			out.Largest = d
-		}
-	}
-	out.Note = padeMapNote(out, len(m.RHP), orderText(n, chosen, w*L))
+	out.Largest = hausdorff(s, slices.Concat(exactLines...), slices.Concat(approxLines...))
+	out.Note = padeMapNote(out, len(m.RHP), orderText(n, chosen, w*L), s.X.Param, s.Y.Param)
 	return out, nil
 }
 
-// lineEdges returns the positions along grid line line (rows first, then
-// columns) where m's stability class changes between neighbouring
-// decided nodes, each placed by bisection on the setup's test.
-func lineEdges(s plane.Setup, c stability.Counter, sc *plane.Scratch, m *grid.Map, line int) []float64 {
+// edgePoint is a point of a stability edge on a grid line.
+type edgePoint struct{ x, y float64 }
+
+// lineEdges returns the stability edge points on grid line line (rows
+// first, then columns), where m's stability class changes between
+// neighbouring decided nodes, each placed by bisection on the setup's
+// test.
+func lineEdges(s plane.Setup, c stability.Counter, sc *plane.Scratch, m *grid.Map, line int) []edgePoint {
 	nx, ny := m.XAxis.N, m.YAxis.N
 	row := line < ny
 	count := nx
@@ -117,7 +118,7 @@ func lineEdges(s plane.Setup, c stability.Counter, sc *plane.Scratch, m *grid.Ma
 		return i*nx + (line - ny), m.XAxis.At(line - ny), m.YAxis.At(i)
 	}
 	stable := func(x, y float64) bool { return c.Count(s.Function(sc, x, y)).Stable() }
-	var out []float64
+	var out []edgePoint
 	for i := 0; i+1 < count; i++ {
 		ka, xa, ya := node(i)
 		kb, xb, yb := node(i + 1)
@@ -135,64 +136,55 @@ func lineEdges(s plane.Setup, c stability.Counter, sc *plane.Scratch, m *grid.Ma
 			}
 		}
 		t := 0.5 * (lo + hi)
-		if row {
-			out = append(out, xa+t*(xb-xa))
-		} else {
-			out = append(out, ya+t*(yb-ya))
-		}
+		out = append(out, edgePoint{xa + t*(xb-xa), ya + t*(yb-ya)})
 	}
 	return out
 }
 
-// displacement pairs the exact edges e and the approximate edges a of one
-// line (see comparePade) and returns the largest distance, nil when the
-// line has no edge in either map.
-func displacement(s plane.Setup, line, ny int, e, a []float64) *export.Displacement {
-	ax, at := s.X, s.Y.At(line)
-	other := s.Y.Param
-	if line >= ny {
-		ax, at, other = s.Y, s.X.At(line-ny), s.X.Param
+// hausdorff returns the largest distance from a point of either set to
+// the nearest point of the other, in the window of s scaled to a unit
+// square, with the two points; nil when a set is empty.
+func hausdorff(s plane.Setup, exact, approx []edgePoint) *export.Displacement {
+	if len(exact) == 0 || len(approx) == 0 {
+		return nil
 	}
+	sx, sy := s.X.Span(), s.Y.Span()
 	var best *export.Displacement
-	try := func(from, to []float64, fromExact bool) {
+	farthest := func(from, to []edgePoint, fromExact bool) {
 		for _, p := range from {
-			d, q := nearest(p, to, ax.Min, ax.Max)
-			if best != nil && d <= best.Distance {
-				continue
-			}
-			ex, ap := export.Number(p), export.Number(q)
-			if len(to) == 0 {
-				ap = export.Number(math.NaN())
-			}
-			if !fromExact {
-				ex, ap = export.Number(q), export.Number(p)
-				if len(to) == 0 {
-					ex = export.Number(math.NaN())
+			d, q := math.Inf(1), to[0]
+			for _, o := range to {
+				if e := math.Hypot((o.x-p.x)/sx, (o.y-p.y)/sy); e < d {
+					d, q = e, o
 				}
 			}
-			best = &export.Displacement{Along: ax.Param, On: other, At: at, Distance: d, Share: d / ax.Span(), Exact: ex, Approximate: ap}
+			if best != nil && d <= best.Share {
+				continue
+			}
+			ex, ap := p, q
+			if !fromExact {
+				ex, ap = q, p
+			}
+			best = &export.Displacement{Exact: [2]float64{ex.x, ex.y}, Approximate: [2]float64{ap.x, ap.y}, DX: ap.x - ex.x, DY: ap.y - ex.y, Share: d}
 		}
 	}
-	try(e, a, true)
-	try(a, e, false)
+	farthest(exact, approx, true)
+	farthest(approx, exact, false)
 	return best
 }
 
 // padeMapNote says in words where the approximate map misleads.
-func padeMapNote(p *export.PadeMap, nodes int, order string) string {
-	if p.Disagree == 0 && p.CountDiffers == 0 && (p.Largest == nil || p.Largest.Distance == 0) {
+func padeMapNote(p *export.PadeMap, nodes int, order, xName, yName string) string {
+	if p.Disagree == 0 && p.CountDiffers == 0 && (p.Largest == nil || p.Largest.Share == 0) {
 		return order + ": the approximate map agrees with the exact one at every node"
 	}
 	s := fmt.Sprintf("%s: %d of %d nodes (%.3g%%) disagree on stability, %d on the count", order, p.Disagree, nodes, 100*float64(p.Disagree)/float64(nodes), p.CountDiffers)
-	d := p.Largest
-	switch {
-	case d == nil:
-	case !d.Approximate.Valid():
-		s += fmt.Sprintf("; on the line %s = %.4g the exact stability edge at %s = %.4g has no counterpart in the approximate map: it has moved at least %.4g (%.3g%% of the window's span), out of the window", d.On, d.At, d.Along, float64(d.Exact), d.Distance, 100*d.Share)
-	case !d.Exact.Valid():
-		s += fmt.Sprintf("; on the line %s = %.4g the approximate map has a stability edge at %s = %.4g where the exact map has none: at least %.4g (%.3g%% of the window's span) off", d.On, d.At, d.Along, float64(d.Approximate), d.Distance, 100*d.Share)
-	default:
-		s += fmt.Sprintf("; the stability edge moves by up to %.4g in %s (%.3g%% of the window's span), from %.6g to %.6g on the line %s = %.4g", d.Distance, d.Along, 100*d.Share, float64(d.Exact), float64(d.Approximate), d.On, d.At)
+	if p.Largest == nil {
+		return s + "; one of the two maps has no stability edge in the window"
+	}
+	if d := p.Largest; d != nil {
+		s += fmt.Sprintf("; the stability edge moves by up to %.3g%% of the window, from (%.6g, %.6g) to (%.6g, %.6g): by %.4g in %s and %.4g in %s",
+			100*d.Share, d.Exact[0], d.Exact[1], d.Approximate[0], d.Approximate[1], d.DX, xName, d.DY, yName)
 	}
 	return s
 }
