@@ -136,9 +136,18 @@ func lineEdges(s plane.Setup, c stability.Counter, sc *plane.Scratch, m *grid.Ma
 			}
 		}
 		t := 0.5 * (lo + hi)
-		out = append(out, edgePoint{xa + t*(xb-xa), ya + t*(yb-ya)})
+		out = append(out, edgePoint{snapZero(xa+t*(xb-xa), m.XAxis.Span()), snapZero(ya+t*(yb-ya), m.YAxis.Span())})
 	}
 	return out
+}
+
+// snapZero returns 0 for a value within 1e-12 of the span from it: the
+// residue of a bisection onto an edge along a zero gain (ki = 0).
+func snapZero(v, span float64) float64 {
+	if math.Abs(v) <= 1e-12*span {
+		return 0
+	}
+	return v
 }
 
 // hausdorff returns the largest distance from a point of either set to
