@@ -38,6 +38,13 @@ func rootOf(f func(float64) float64, a, b float64) float64 {
 	return 0.5 * (a + b)
 }
 
+// firstOrder is a case of the first-order plant with dead time
+// k·e^(−Ls)/(Ts ± 1).
+type firstOrder struct {
+	name    string
+	k, T, L float64
+}
+
 // relClose reports |got − want| ≤ rel·|want|.
 func relClose(got, want, rel float64) bool { return math.Abs(got-want) <= rel*math.Abs(want) }
 
@@ -56,10 +63,7 @@ func relClose(got, want, rel float64) bool { return math.Abs(got-want) <= rel*ma
 // tan(ωL) = −ωT, and the gain condition k·kp = √(1 + (ωT)²). Ends and the
 // frequency to 1e-8 relative.
 func TestFirstOrderDeadTimeRange(t *testing.T) {
-	for _, c := range []struct {
-		name    string
-		k, T, L float64
-	}{
+	for _, c := range []firstOrder{
 		{"k=1 T=1 L=1", 1, 1, 1},
 		{"k=2 T=4 L=1.5", 2, 4, 1.5},
 		{"k=0.5 T=10 L=0.3 (short delay)", 0.5, 10, 0.3},
@@ -101,10 +105,7 @@ func TestFirstOrderDeadTimeRange(t *testing.T) {
 // (the condition L < T is as recalled from Silva, Datta and
 // Bhattacharyya 2005).
 func TestUnstableFirstOrderDeadTime(t *testing.T) {
-	for _, c := range []struct {
-		name    string
-		k, T, L float64
-	}{
+	for _, c := range []firstOrder{
 		{"L<T", 1, 2, 0.5},
 		{"L<T close", 2, 1, 0.8},
 		{"L>T", 1, 1, 1.5},

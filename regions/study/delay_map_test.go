@@ -13,20 +13,10 @@ import (
 	"gainscape/regions/stability"
 )
 
-// archRoot is the root of tan α = −α in (lo, lo + π/2), by bisection on
+// archRoot is the root of tan α = −α in (lo, lo + π/2), that is of
 // sin α + α·cos α.
 func archRoot(lo float64) float64 {
-	a, b := lo, lo+math.Pi/2
-	fa := math.Sin(a) + a*math.Cos(a)
-	for range 200 {
-		m := 0.5 * (a + b)
-		if fm := math.Sin(m) + m*math.Cos(m); (fm > 0) == (fa > 0) {
-			a, fa = m, fm
-		} else {
-			b = m
-		}
-	}
-	return 0.5 * (a + b)
+	return rootIn(func(a float64) float64 { return math.Sin(a) + a*math.Cos(a) }, lo, lo+math.Pi/2)
 }
 
 // TestBranchesOfThePIEdge: PI on e^(−s)/(s + 1). Its complex edge is
@@ -83,16 +73,7 @@ func TestBranchesOfThePIEdge(t *testing.T) {
 func TestBranchOfAThirdOrderLag(t *testing.T) {
 	den := poly.Poly{1, 3, 3, 1}
 	for k, want := range []int{0, 1} {
-		lo, hi := 0.0, 200.0
-		for range 200 {
-			m := 0.5 * (lo + hi)
-			if 3*math.Atan(m)+0.1*m < math.Pi*float64(2*k+1) {
-				lo = m
-			} else {
-				hi = m
-			}
-		}
-		w := 0.5 * (lo + hi)
+		w := rootIn(func(w float64) float64 { return 3*math.Atan(w) + 0.1*w - math.Pi*float64(2*k+1) }, 0, 200)
 		kp := math.Pow(1+w*w, 1.5)
 		if got := branchAt(poly.Poly{kp}, den, 0.1, w); got != want {
 			t.Errorf("crossing %d at ω %g (ωL %g): branch %d, want %d", k, w, 0.1*w, got, want)
@@ -318,5 +299,32 @@ func TestUnstablePlantMaps(t *testing.T) {
 	}
 	if res := runMap(t, scenarioOf("exp(-3*s)/(2*s-1)", "pi", x, y, 51, 21)); res.Stats.Stable != 0 {
 		t.Errorf("L > T: %d stable nodes", res.Stats.Stable)
+	}
+}
+
+// TestHugeAndTinyGainsWithDelay: scaling the plant gain by 1e12 (or
+// 1e-12) and the gain window by its inverse leaves the loop, and so the
+// map, unchanged (exactly so: the controller's gains multiply the plant's
+// gain in every coefficient); the counts must agree node by node with
+// the unscaled map, and the P range of probe --vary scales with it.
+func TestHugeAndTinyGainsWithDelay(t *testing.T) {
+	base := runMap(t, scenarioOf("exp(-s)/(s+1)", "pi", spec.Axis{Param: "kp", Min: -2, Max: 3}, spec.Axis{Param: "ki", Min: 0, Max: 2}, 31, 21))
+	for _, g := range []float64{1e12, 1e-12} {
+		plant := formatAll([]float64{g})[0] + "*exp(-s)/(s+1)"
+		res := runMap(t, scenarioOf(plant, "pi", spec.Axis{Param: "kp", Min: -2 / g, Max: 3 / g}, spec.Axis{Param: "ki", Min: 0, Max: 2 / g}, 31, 21))
+		for k := range base.Map.RHP {
+			if res.Map.RHP[k] != base.Map.RHP[k] {
+				t.Fatalf("gain %g: node %d counts %d, unscaled %d", g, k, res.Map.RHP[k], base.Map.RHP[k])
+			}
+		}
+		rep, err := Vary(VaryRequest{Loop: LoopSpec{Plant: plant, Controller: "p"}, Range: spec.Axis{Param: "kp", Min: -5 / g, Max: 5 / g}, Text: "kp"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		a := alphaOne(1)
+		iv := rep.Doc.Intervals
+		if len(iv) != 1 || math.Abs(iv[0].Lo*g+1) > 1e-8 || math.Abs(iv[0].Hi*g-math.Sqrt(a*a+1)) > 1e-8 || math.Abs(float64(iv[0].HiOmega)-a) > 1e-8 {
+			t.Errorf("gain %g: intervals %+v, want (−1, %.10g)/gain at ω %.10g", g, iv, math.Sqrt(a*a+1), a)
+		}
 	}
 }

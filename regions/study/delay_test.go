@@ -21,19 +21,25 @@ func probeOf(t *testing.T, plant, ctrl string, pade int, vals ...spec.Value) *ex
 	return rep.Doc
 }
 
-// alphaOne is the root in (π/2, π) of tan α = −r·α, by bisection on
-// sin α + r·α·cos α.
-func alphaOne(r float64) float64 {
-	a, b := math.Pi/2, math.Pi
+// rootIn returns the zero of f in [a, b], where f changes sign, by
+// bisection to rounding.
+func rootIn(f func(float64) float64, a, b float64) float64 {
+	fa := f(a)
 	for range 200 {
 		m := 0.5 * (a + b)
-		if math.Sin(m)+r*m*math.Cos(m) > 0 {
-			a = m
+		if fm := f(m); (fm > 0) == (fa > 0) {
+			a, fa = m, fm
 		} else {
 			b = m
 		}
 	}
 	return 0.5 * (a + b)
+}
+
+// alphaOne is the root in (π/2, π) of tan α = −r·α, that is of
+// sin α + r·α·cos α.
+func alphaOne(r float64) float64 {
+	return rootIn(func(a float64) float64 { return math.Sin(a) + r*a*math.Cos(a) }, math.Pi/2, math.Pi)
 }
 
 // TestProbeDelayMarginHandDerived: P with kp = 2 on e^(−s)/(s + 1), derived
@@ -187,16 +193,7 @@ func TestProbeUnstablePlantWithDelay(t *testing.T) {
 		t.Fatalf("kp = 1.5 reported unstable: rhp %d", d.RHP)
 	}
 	r := 4.0 // T/L
-	a, b := 1e-9, math.Pi/2
-	for range 200 {
-		m := 0.5 * (a + b)
-		if math.Sin(m)-r*m*math.Cos(m) < 0 {
-			a = m
-		} else {
-			b = m
-		}
-	}
-	z := 0.5 * (a + b)
+	z := rootIn(func(z float64) float64 { return math.Sin(z) - r*z*math.Cos(z) }, 1e-9, math.Pi/2)
 	ku := r * math.Sqrt(z*z+1/(r*r))
 	if d.Ultimate == nil || math.Abs(d.Ultimate.Ku-ku) > 1e-8*ku || d.Ultimate.RulesApply {
 		t.Errorf("ultimate %+v, want Ku %.10g with the rules marked as not applying", d.Ultimate, ku)
@@ -261,6 +258,31 @@ func TestPIRegionFirstOrderDeadTime(t *testing.T) {
 			if ivs := vary(kp, 10); len(ivs) != 0 {
 				t.Errorf("%s, kp = %.6g outside the P range: intervals %+v", plant, kp, ivs)
 			}
+		}
+	}
+}
+
+// TestVaryFirstOrderDeadTime: probe --vary of P on k·e^(−Ls)/(Ts + 1)
+// reports the closed form of Silva, Datta and Bhattacharyya (PID
+// Controllers for Time-Delay Systems, Birkhäuser 2005),
+// −1/k < kp < (T/(kL))·√(α1² + (L/T)²), tan α1 = −(T/L)·α1, with the
+// crossing frequency α1/L, ends to 1e-8, on three invented (k, T, L).
+func TestVaryFirstOrderDeadTime(t *testing.T) {
+	for _, c := range []struct{ k, T, L float64 }{{1, 1, 1}, {2, 4, 1.5}, {0.8, 0.5, 3}} {
+		a := alphaOne(c.T / c.L)
+		lo, hi := -1/c.k, (c.T/(c.k*c.L))*math.Sqrt(a*a+(c.L/c.T)*(c.L/c.T))
+		plant := formatAll([]float64{c.k})[0] + "*exp(-" + formatAll([]float64{c.L})[0] + "*s)/(" + formatAll([]float64{c.T})[0] + "*s+1)"
+		rep, err := Vary(VaryRequest{Loop: LoopSpec{Plant: plant, Controller: "p"}, Range: spec.Axis{Param: "kp", Min: 3 * lo, Max: 3 * hi}, Text: "kp"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		iv := rep.Doc.Intervals
+		if len(iv) != 1 || math.Abs(iv[0].Lo-lo) > 1e-8*math.Abs(lo) || iv[0].LoKind != "real" ||
+			math.Abs(iv[0].Hi-hi) > 1e-8*hi || iv[0].HiKind != "complex" || math.Abs(float64(iv[0].HiOmega)-a/c.L) > 1e-8*a/c.L {
+			t.Errorf("%s: intervals %+v, want (%.12g, %.12g) with ω %.12g at the top", plant, iv, lo, hi, a/c.L)
+		}
+		if !strings.Contains(rep.Intervals[0].HiEnd, "oscillates") {
+			t.Errorf("%s: upper end %q", plant, rep.Intervals[0].HiEnd)
 		}
 	}
 }
