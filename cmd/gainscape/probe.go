@@ -163,7 +163,14 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 			fmt.Fprintf(w, "  %.6g ± %.6gj  (ζ = %.3g, ωn = %.4g %s)\n", p[0], p[1], -p[0]/math.Hypot(p[0], p[1]), math.Hypot(p[0], p[1]), u.Freq())
 		}
 	}
-	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
+	if r.Delayed != nil && len(r.Poles) == 0 {
+		fmt.Fprintln(w, "  none listed: infinitely many roots lie in the right half plane")
+	}
+	if r.DecayRate.Valid() {
+		fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", float64(r.DecayRate), u.Rate(), float64(r.MinDamping))
+	} else {
+		fmt.Fprintln(w, "decay rate   none: roots grow without bound on the right")
+	}
 	if !r.Stable {
 		fmt.Fprintln(w, "The loop is not stable, so the figures below are no robustness margins: they")
 		fmt.Fprintln(w, "describe the open loop L(jω), not how far the loop is from instability.")
@@ -205,10 +212,10 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		}
 		fmt.Fprintf(w, "%s %.4g %s of further dead time at the gain crossover ω = %.4g %s (phase margin %.4g°)\n", head, d.Extra, u.TimeLabel(), d.Freq, u.Freq(), d.PhaseMarginDeg)
 	}
-	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
-	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
+	fmt.Fprintf(w, "Ms           %s at ω = %s %s%s\n", peakText(r.Ms), optText(r.MsFreq), u.Freq(), band)
+	fmt.Fprintf(w, "Mt           %s at ω = %s %s\n", peakText(r.Mt), optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
-		printFragility(w, fr, u)
+		printFragility(w, fr, u, r.Delayed != nil)
 	}
 	if ul := r.Ultimate; ul != nil {
 		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
@@ -234,7 +241,7 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 }
 
 // printFragility writes the fragility lines of the probe report.
-func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
+func printFragility(w io.Writer, fr *export.Fragility, u study.Units, dead bool) {
 	xn, yn := fr.Plane[0], fr.Plane[1]
 	if !fr.Found {
 		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
@@ -247,6 +254,9 @@ func printFragility(w io.Writer, fr *export.Fragility, u study.Units) {
 			return fmt.Sprintf("a complex pair crosses at ω = %.4g %s", float64(n.Omega), u.Freq())
 		case "real":
 			return "a real root crosses through s = 0"
+		}
+		if dead {
+			return "a chain of infinitely many roots crosses (neutral type: |lim L(s)| reaches 1)"
 		}
 		return "a root passes through infinity"
 	}
@@ -300,6 +310,15 @@ func floatsText(v []float64) string {
 		s[i] = fmt.Sprintf("%.6g", x)
 	}
 	return strings.Join(s, ", ")
+}
+
+// peakText writes Ms or Mt: infinite for a neutral loop whose |L| tends
+// to 1 or more.
+func peakText(v export.Number) string {
+	if !v.Valid() {
+		return "∞"
+	}
+	return fmt.Sprintf("%.4g", float64(v))
 }
 
 func optText(v export.Number) string {

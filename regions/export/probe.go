@@ -41,9 +41,9 @@ type Probe struct {
 	PhaseCrossover Number       `json:"phase_crossover"`
 	PhaseMargin    Number       `json:"phase_margin_deg"`
 	GainCrossover  Number       `json:"gain_crossover"`
-	Ms             float64      `json:"ms"`
+	Ms             Number       `json:"ms"`
 	MsFreq         Number       `json:"ms_freq"`
-	Mt             float64      `json:"mt"`
+	Mt             Number       `json:"mt"`
 	MtFreq         Number       `json:"mt_freq"`
 	// DelayMargins lists, for each gain crossover, the further dead time
 	// the loop tolerates; DelayMargin is the smallest (null with no gain

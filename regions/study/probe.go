@@ -102,7 +102,7 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 		doc.GainMarginDB = export.Number(math.NaN())
 	}
 	doc.PhaseMargin, doc.GainCrossover = export.Number(mg.PhaseMargin), export.Number(mg.GainCrossover)
-	doc.Ms, doc.MsFreq, doc.Mt, doc.MtFreq = mg.Ms, export.Number(mg.MsFreq), mg.Mt, export.Number(mg.MtFreq)
+	doc.Ms, doc.MsFreq, doc.Mt, doc.MtFreq = export.Number(mg.Ms), export.Number(mg.MsFreq), export.Number(mg.Mt), export.Number(mg.MtFreq)
 
 	if doc.Fragility, err = fragility(ctx, l, req.X, req.Y); err != nil {
 		return nil, err
