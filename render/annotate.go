@@ -67,6 +67,9 @@ type layout struct {
 func (a annotations) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
 	lay := a.place(c.Rectangle, trX, trY)
+	for _, pt := range branchSites(a.fig.LaterBranches, c.Rectangle, trX, trY) {
+		drawBranchMark(c, pt)
+	}
 	for _, l := range lay.leaders {
 		drawLeader(c, l)
 	}

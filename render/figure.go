@@ -61,6 +61,9 @@ type Figure struct {
 	// OwnLabel names the map's own loop beside them in the legend.
 	Compare  []EdgeSet
 	OwnLabel string
+	// LaterBranches are edge points on D-partition branches beyond the
+	// first, marked by small diamonds along the edge (see BranchPoint).
+	LaterBranches []BranchPoint
 	// Width and Height are the image size; zero means 16 cm by 12 cm.
 	Width, Height vg.Length
 	// DPI is the resolution of PNG output; zero means 200 dots per inch.

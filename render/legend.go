@@ -93,6 +93,9 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 			edges.entries = append(edges.entries, legendEntry{kindName(k, f.Sample > 0), []plot.Thumbnailer{lineThumb{haloStyle(), curveStyle(k)}}})
 		}
 	}
+	if len(f.LaterBranches) > 0 {
+		edges.entries = append(edges.entries, legendEntry{"on a later branch", []plot.Thumbnailer{branchThumb{lineThumb{haloStyle(), curveStyle(stability.Complex)}}}})
+	}
 	if len(edges.entries) > 0 {
 		out = append(out, edges)
 	}

@@ -18,6 +18,9 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 	title := sc.Output.Title
 	if title == "" {
 		title = fmt.Sprintf("G(s) = %s under %s", res.Plant, strings.ToUpper(res.Controller))
+		if res.Delay > 0 {
+			title += fmt.Sprintf(" (dead time %g %s)", res.Delay, res.Units.TimeLabel())
+		}
 	}
 	note := res.Formula
 	if fixed := study.ValuesText(res.Fixed); fixed != "" {
@@ -45,6 +48,14 @@ func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) rend
 				continue
 			}
 			fig.Compare = append(fig.Compare, render.EdgeSet{Label: e.Label(res.Units), Curves: e.Curves})
+		}
+	}
+	for i, bs := range res.Branches {
+		for k, b := range bs {
+			if b > 0 {
+				p := res.Curves[i].Points[k]
+				fig.LaterBranches = append(fig.LaterBranches, render.BranchPoint{X: p.X, Y: p.Y})
+			}
 		}
 	}
 	ov := res.Overlays

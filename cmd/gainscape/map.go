@@ -57,6 +57,7 @@ type mapFlags struct {
 	best           string
 	msBound        float64
 	compare        string
+	pade           int
 	demoLabel      string
 }
 
@@ -74,6 +75,7 @@ func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
 	fs.StringVar(&f.integral, "integral", "", "digital integral: backward, forward or trapezoid")
 	fs.Float64Var(&f.prewarp, "prewarp", 0, "pre-warp frequency of a digital lead or lag (0: none)")
 	fs.StringVar(&f.compare, "compare-samples", "", "sample times whose edges are drawn over the map")
+	fs.IntVar(&f.pade, "pade", d.Loop.Pade, "order of the Padé approximant a loop with dead time is compared with (0: chosen)")
 	fs.StringVar(&f.x, "x", axisText(d.Axes.X), "horizontal axis NAME=MIN:MAX")
 	fs.StringVar(&f.y, "y", axisText(d.Axes.Y), "vertical axis NAME=MIN:MAX")
 	fs.StringVar(&f.grid, "grid", fmt.Sprintf("%dx%d", d.Axes.Columns, d.Axes.Rows), "grid nodes NXxNY")

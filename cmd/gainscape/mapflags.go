@@ -42,7 +42,7 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 			return s, err
 		}
 	}
-	s.Loop.TimeUnit, s.Loop.Sample, s.Loop.Integral, s.Loop.Prewarp = f.timeUnit, f.sample, f.integral, f.prewarp
+	s.Loop.TimeUnit, s.Loop.Sample, s.Loop.Integral, s.Loop.Prewarp, s.Loop.Pade = f.timeUnit, f.sample, f.integral, f.prewarp, f.pade
 	if given("x") {
 		if s.Axes.X, err = spec.ParseAxis(f.x); err != nil {
 			return s, userErr("--x: %v", err)

@@ -54,6 +54,13 @@ Digital controller (a sampled-data loop):
                       each (at the lowest y, or just above it when that row
                       is marginal); the plant must be given in s
                         --compare-samples 0.05,0.2,0.5
+Dead time (a plant with one factor exp(-L*s)):
+  --pade N            the counts come from the quasi-polynomial itself; the
+                      window is also mapped with the delay replaced by its
+                      order-N Padé approximant (sign array), and the summary
+                      says where the two maps disagree; 0 (the default)
+                      chooses N from the largest ωL of the window
+                        --plant "2*exp(-1.5*s)/((4*s+1)*(s+1))" --pade 3
 Window:
   --x NAME=MIN:MAX    horizontal axis (default: the controller's first
                       parameter, 0:10)

@@ -71,6 +71,9 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 	if st.Undecided > 0 {
 		fmt.Fprintf(&b, "- %d nodes could not be decided by the stability test\n", st.Undecided)
 	}
+	for _, l := range deadTimeLines(res) {
+		fmt.Fprintf(&b, "- %s: %s\n", strings.ToUpper(l[0][:1])+l[0][1:], l[1])
+	}
 	for _, p := range points(res) {
 		if p.Failed != "" {
 			fmt.Fprintf(&b, "- %s: none found (%s)\n", pointName(p), p.Failed)

@@ -57,10 +57,16 @@ Flags:
                         --vary kp=0:100
   --json              print one JSON object instead of text
                         --json
+  --pade N            for a plant with dead time exp(-L*s): the order of the
+                      Padé approximant the exact results are compared with
+                      (0, the default: chosen from the frequencies that
+                      matter at the point)
+                        --pade 3
 
 Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
   gainscape probe --plant "1/(s*(s+1)*(s+2))" --ctrl p --vary kp=0:100
+  gainscape probe --plant "exp(-s)/(s+1)" --ctrl p --set kp=2
   gainscape probe --num "3" --den "0.16, 1.3, 2.45, 2.5, 1" --ctrl pi --set kp=1,ki=0.3 --json
   gainscape probe --plant "1/(s*(s+1))" --ctrl p --sample 1 --vary kp=0:10
 `
@@ -70,6 +76,7 @@ type probeFlags struct {
 	x, y string
 	vary string
 	json bool
+	pade int
 }
 
 func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
@@ -89,6 +96,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
 	fs.BoolVar(&f.json, "json", false, "print JSON")
+	fs.IntVar(&f.pade, "pade", 0, "order of the Padé approximant a loop with dead time is compared with (0: chosen)")
 	if err := parseFlags(fs, args, probeHelp, stdout); err != nil {
 		return err
 	}
@@ -96,10 +104,13 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	if err != nil {
 		return err
 	}
+	if err := padeFlag(f.pade); err != nil {
+		return err
+	}
 	if f.vary != "" {
 		return runVary(ls, f, stdout)
 	}
-	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y})
+	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y, Pade: f.pade})
 	if err != nil {
 		return err
 	}
@@ -120,8 +131,12 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 	}
 	fmt.Fprintf(w, "plant        G(s) = %s\n", r.Plant)
 	fmt.Fprintf(w, "controller   %s with %s\n", rep.Formula, study.ValuesText(rep.Values))
-	fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
-	fmt.Fprintln(w, "Routh sign array (first column decides):")
+	if r.Delayed != nil {
+		printDelayWorking(w, r, u)
+	} else {
+		fmt.Fprintf(w, "closed loop  p(s) = %s\n\n", polyText(r.Characteristic))
+		fmt.Fprintln(w, "Routh sign array (first column decides):")
+	}
 	for _, row := range r.SignArray {
 		fmt.Fprintf(w, "  s^%-2d │ %s%s\n", row.Power, strings.Join(pad(row.Entries, 12), " "), rowNote(row))
 	}
@@ -132,10 +147,14 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  an entry that decides the count has no significant digit left in double precision;")
 		fmt.Fprintln(w, "  the count below is confirmed from the eigenvalues, all clear of the imaginary axis")
 	}
-	fmt.Fprintf(w, "  roots in the right half plane: %d; on the imaginary axis: %d", r.RHP, r.JW)
+	fmt.Fprintf(w, "  roots in the right half plane: %s; on the imaginary axis: %d", countText(r.RHP), r.JW)
 	printVerdict(w, r, "ω", u)
 
-	fmt.Fprintln(w, "Closed-loop poles:")
+	if r.Delayed != nil {
+		fmt.Fprintln(w, "Closed-loop poles: the rightmost roots of Δ (spectral collocation, polished by Newton's method on Δ):")
+	} else {
+		fmt.Fprintln(w, "Closed-loop poles:")
+	}
 	for _, p := range r.Poles {
 		if p[1] < 0 {
 			continue
@@ -146,7 +165,14 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 			fmt.Fprintf(w, "  %.6g ± %.6gj  (ζ = %.3g, ωn = %.4g %s)\n", p[0], p[1], -p[0]/math.Hypot(p[0], p[1]), math.Hypot(p[0], p[1]), u.Freq())
 		}
 	}
-	fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", r.DecayRate, u.Rate(), r.MinDamping)
+	if r.Delayed != nil && len(r.Poles) == 0 {
+		fmt.Fprintln(w, "  none listed: infinitely many roots lie in the right half plane")
+	}
+	if r.DecayRate.Valid() {
+		fmt.Fprintf(w, "decay rate   σ = %.4g %s (slowest pole), smallest damping ratio ζ = %.3g\n", float64(r.DecayRate), u.Rate(), float64(r.MinDamping))
+	} else {
+		fmt.Fprintln(w, "decay rate   none: roots grow without bound on the right")
+	}
 	printRobustness(w, rep)
 }
 
@@ -197,6 +223,10 @@ func printRobustness(w io.Writer, rep *study.ProbeReport) {
 			if i > 0 {
 				head = "            "
 			}
+			if r.Delayed != nil && i == shownCrossovers {
+				fmt.Fprintf(w, "%s … %d more phase crossovers, one per turn of the delay (see --json)\n", head, len(r.GainMargins)-i)
+				break
+			}
 			change := "rise"
 			if g.Direction == "fall" {
 				change = "fall"
@@ -214,10 +244,17 @@ func printRobustness(w io.Writer, rep *study.ProbeReport) {
 	if !r.Stable {
 		band = ""
 	}
-	fmt.Fprintf(w, "Ms           %.4g at ω = %s %s%s\n", r.Ms, optText(r.MsFreq), u.Freq(), band)
-	fmt.Fprintf(w, "Mt           %.4g at ω = %s %s\n", r.Mt, optText(r.MtFreq), u.Freq())
+	for i, d := range r.DelayMargins {
+		head := "delay margin"
+		if i > 0 {
+			head = "            "
+		}
+		fmt.Fprintf(w, "%s %.4g %s of further dead time at the gain crossover ω = %.4g %s (phase margin %.4g°)\n", head, d.Extra, u.TimeLabel(), d.Freq, u.Freq(), d.PhaseMarginDeg)
+	}
+	fmt.Fprintf(w, "Ms           %s at ω = %s %s%s\n", peakText(r.Ms), optText(r.MsFreq), u.Freq(), band)
+	fmt.Fprintf(w, "Mt           %s at ω = %s %s\n", peakText(r.Mt), optText(r.MtFreq), u.Freq())
 	if fr := r.Fragility; fr != nil {
-		printFragility(w, fr, u, r.SampleTime)
+		printFragility(w, fr, u, r.SampleTime, r.Delayed != nil)
 	}
 	if ul := r.Ultimate; ul != nil {
 		fmt.Fprintf(w, "\nProportional-only loop: ultimate gain Ku = %.6g, ultimate period Tu = %.6g %s\n", ul.Ku, ul.Tu, u.TimeLabel())
@@ -238,13 +275,17 @@ func printRobustness(w io.Writer, rep *study.ProbeReport) {
 	} else {
 		fmt.Fprintln(w, "\nProportional-only loop: no finite ultimate gain with a sustained oscillation")
 	}
+	if pd := r.Pade; pd != nil {
+		fmt.Fprintf(w, "\nPadé cross-check: %s\n", pd.Note)
+	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)
 }
 
 // printFragility writes the fragility lines of the probe report; T is the
-// sample time of a sampled loop, 0 for a continuous one.
-func printFragility(w io.Writer, fr *export.Fragility, u study.Units, T float64) {
+// sample time of a sampled loop, 0 for a continuous one, and dead says
+// the loop has dead time.
+func printFragility(w io.Writer, fr *export.Fragility, u study.Units, T float64, dead bool) {
 	xn, yn := fr.Plane[0], fr.Plane[1]
 	if !fr.Found {
 		fmt.Fprintf(w, "nearest edge none in the %s–%s window %s %.4g…%.4g, %s %.4g…%.4g\n",
@@ -261,6 +302,9 @@ func printFragility(w io.Writer, fr *export.Fragility, u study.Units, T float64)
 		case "real":
 			return "a real root crosses through s = 0"
 		}
+		if dead {
+			return "a chain of infinitely many roots crosses (neutral type: |lim L(s)| reaches 1)"
+		}
 		return "a root passes through infinity"
 	}
 	a, r := fr.Absolute, fr.Relative
@@ -276,7 +320,7 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 	if err != nil {
 		return userErr("--vary: %v", err)
 	}
-	rep, err := study.Vary(study.VaryRequest{Loop: ls, Range: ax, Text: f.vary})
+	rep, err := study.Vary(study.VaryRequest{Loop: ls, Range: ax, Text: f.vary, Pade: f.pade})
 	if err != nil {
 		return err
 	}
@@ -300,6 +344,9 @@ func runVary(ls study.LoopSpec, f probeFlags, w io.Writer) error {
 		fmt.Fprintf(w, "  lower end: %s\n", iv.LoEnd)
 		fmt.Fprintf(w, "  upper end: %s\n", iv.HiEnd)
 	}
+	if pd := rep.Doc.Pade; pd != nil {
+		fmt.Fprintf(w, "\nPadé cross-check: %s\n", pd.Note)
+	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)
 	return nil
@@ -313,6 +360,15 @@ func floatsText(v []float64) string {
 		s[i] = fmt.Sprintf("%.6g", x)
 	}
 	return strings.Join(s, ", ")
+}
+
+// peakText writes Ms or Mt: infinite for a neutral loop whose |L| tends
+// to 1 or more.
+func peakText(v export.Number) string {
+	if !v.Valid() {
+		return "∞"
+	}
+	return fmt.Sprintf("%.4g", float64(v))
 }
 
 func optText(v export.Number) string {

@@ -49,6 +49,9 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 	if st.Undecided > 0 {
 		fmt.Fprintf(w, "undecided   %d nodes where the stability test could not be trusted (drawn hatched)\n", st.Undecided)
 	}
+	for _, l := range deadTimeLines(res) {
+		fmt.Fprintf(w, "%-11s %s\n", l[0], l[1])
+	}
 	printCompare(w, res)
 	for _, p := range points(res) {
 		if p.Failed != "" {

@@ -133,7 +133,12 @@ func refine(s plane.Setup, c stability.Counter, buf *plane.Scratch, m *grid.Map,
 	}
 	function := func(x, y float64) stability.Function {
 		f := s.Function(buf, x, y)
+		// The scratch polynomials are reused by the next call: keep copies
+		// of both parts (Q carries the delayed part of a loop with dead time).
 		f.P = f.P.Clone()
+		if f.Q != nil {
+			f.Q = f.Q.Clone()
+		}
 		return f
 	}
 	if t.at != 0 {

@@ -62,25 +62,19 @@ func (Test) Report(f stability.Function) stability.Report {
 	return NewCounter(max(len(f.P), len(f.Q))).Report(f)
 }
 
-// NewGrader implements stability.Test with the rightmost roots of the
-// quasi-polynomial (Rightmost): the decay rate is the distance of the
-// rightmost one from the imaginary axis, the damping the least over the
-// few rightmost roots.
-func (Test) NewGrader(n int) stability.Grader { return grader{} }
-
-type grader struct{}
+// NewGrader implements stability.Test: the decay rate alone comes from
+// the count of the shifted quasi-polynomial by bisection (see
+// grader.Decay), and with the damping from the rightmost roots of the
+// quasi-polynomial (Rightmost): the distance of the rightmost one from
+// the imaginary axis, the damping the least over the few rightmost
+// roots.
+func (Test) NewGrader(n int) stability.Grader { return newGrader(n) }
 
 // gradedRoots is how many rightmost roots the grader looks at.
 const gradedRoots = 6
 
-// Decay implements stability.Grader; NaN when the roots cannot be found.
-func (g grader) Decay(f stability.Function) float64 {
-	d, _ := g.DecayDamping(f)
-	return d
-}
-
 // DecayDamping implements stability.Grader.
-func (grader) DecayDamping(f stability.Function) (decay, damping float64) {
+func (*grader) DecayDamping(f stability.Function) (decay, damping float64) {
 	roots, err := Rightmost(f, gradedRoots)
 	if err != nil || len(roots) == 0 {
 		return math.NaN(), math.NaN()

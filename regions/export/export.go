@@ -62,6 +62,12 @@ type Region struct {
 	Axis       [][]int    `json:"axis"`
 	Boundaries []Boundary `json:"boundaries"`
 	Summary    Summary    `json:"summary"`
+	// Delay is the loop's dead time (0: none). For a loop with dead time,
+	// Pade compares the map with that of its Padé-approximated loop and
+	// Confirmation checks the counts by a second method.
+	Delay        float64       `json:"delay,omitempty"`
+	Pade         *PadeMap      `json:"pade,omitempty"`
+	Confirmation *Confirmation `json:"confirmation,omitempty"`
 	// Extra holds the overlays and the marked and found points, when any
 	// were asked for.
 	Extra *Extra `json:"extra,omitempty"`
@@ -92,6 +98,10 @@ type SampleEdges struct {
 type Boundary struct {
 	Kind   stability.Kind `json:"kind"`
 	Points [][3]Number    `json:"points"`
+	// Branches gives, for a complex edge of a loop with dead time, the
+	// D-partition branch of each point (0 the first, -1 where it cannot
+	// be told).
+	Branches []int `json:"branches,omitempty"`
 }
 
 // Summary repeats the figures of the text summary.
@@ -105,6 +115,10 @@ type Summary struct {
 	StableBox *[4]float64 `json:"stable_box"`
 	// OmegaRange is [min, max] of ω along complex-root boundaries, or null.
 	OmegaRange *[2]float64 `json:"omega_range"`
+	// NeutralNodes counts the nodes of a loop with dead time of neutral
+	// type with |lim L(s)| ≥ 1 as s → ∞: infinitely many roots in the right
+	// half plane (or on the axis).
+	NeutralNodes int `json:"neutral_nodes,omitempty"`
 }
 
 // Extra holds what is drawn over the map.

@@ -18,9 +18,17 @@ type Probe struct {
 	SampleTime     float64   `json:"sample_time,omitempty"`
 	Integral       string    `json:"integral,omitempty"`
 	Characteristic []float64 `json:"characteristic"` // highest power first
-	SignArray      []SignRow `json:"sign_array"`
+	// Delay, Delayed: for a loop with dead time, the characteristic
+	// function is Characteristic(s) + Delayed(s)·e^(−Delay·s).
+	Delay     float64   `json:"delay,omitempty"`
+	Delayed   []float64 `json:"characteristic_delayed,omitempty"`
+	SignArray []SignRow `json:"sign_array"`
+	// Working is the test's working where it is not a sign array (the
+	// bands of the argument principle for a loop with dead time).
+	Working []WorkingRow `json:"working,omitempty"`
 	// TestNotes are the stability test's remarks on special cases.
 	TestNotes  []string  `json:"test_notes,omitempty"`
+	Neutral    *Neutral  `json:"neutral,omitempty"`
 	Aux        []float64 `json:"auxiliary_polynomial,omitempty"`
 	Stable     bool      `json:"stable"`
 	CountFrom  string    `json:"count_from"`
@@ -30,13 +38,15 @@ type Probe struct {
 	DegreeDrop int       `json:"degree_drop"`
 	// Poles are the closed-loop poles: in s, or for a sampled loop in z,
 	// largest magnitude first, with ContinuousPoles their equivalents
-	// ln(z)/T (null real part for z = 0) and RootRadius the largest |z|.
+	// ln(z)/T (null real part for z = 0) and RootRadius the largest |z|;
+	// PolesFrom names the method they come from.
 	Poles           [][2]float64 `json:"poles"`
+	PolesFrom       string       `json:"poles_from"`
 	ContinuousPoles []Number2    `json:"continuous_poles,omitempty"`
 	RootRadius      *float64     `json:"root_radius,omitempty"`
 	// DecayRate is −max Re s, or −ln(max |z|)/T for a sampled loop.
-	DecayRate  float64 `json:"decay_rate"`
-	MinDamping float64 `json:"min_damping"`
+	DecayRate  Number `json:"decay_rate"`
+	MinDamping Number `json:"min_damping"`
 	// GainMargin is the gain margin nearest 0 dB, as a factor; GainMargins
 	// lists every phase crossover with its margin.
 	GainMargin     Number       `json:"gain_margin"`
@@ -45,16 +55,24 @@ type Probe struct {
 	PhaseCrossover Number       `json:"phase_crossover"`
 	PhaseMargin    Number       `json:"phase_margin_deg"`
 	GainCrossover  Number       `json:"gain_crossover"`
-	Ms             float64      `json:"ms"`
+	Ms             Number       `json:"ms"`
 	MsFreq         Number       `json:"ms_freq"`
-	Mt             float64      `json:"mt"`
+	Mt             Number       `json:"mt"`
 	MtFreq         Number       `json:"mt_freq"`
+	// DelayMargins lists, for each gain crossover, the further dead time
+	// the loop tolerates; DelayMargin is the smallest (null with no gain
+	// crossover). Continuous-time loops only.
+	DelayMargins []DelayMargin `json:"delay_margins,omitempty"`
+	DelayMargin  Number        `json:"delay_margin"`
 	// Robustness says whether the margins and Ms are robustness figures:
 	// only for a stable loop are they distances to instability.
 	Robustness string     `json:"robustness"`
 	Fragility  *Fragility `json:"fragility,omitempty"`
 	Ultimate   *Ultimate  `json:"ultimate,omitempty"`
-	Caution    string     `json:"caution"`
+	// Pade compares the point with its Padé-approximated loop (dead time
+	// only).
+	Pade    *PadeProbe `json:"pade,omitempty"`
+	Caution string     `json:"caution"`
 }
 
 // Number2 is a pair of numbers, each written as null when it is not
@@ -114,8 +132,10 @@ type Ultimate struct {
 	// sampled loop "alternating" (a real root at z = −1, Tu = 2T).
 	Kind string `json:"kind"`
 	// Method says how Ku and Tu were found and the rules applied, where
-	// that needs saying (a sampled loop).
+	// that needs saying (a sampled loop); From names the method that
+	// found Ku.
 	Method string `json:"method,omitempty"`
+	From   string `json:"from,omitempty"`
 	Rules  []Rule `json:"rules"`
 	// RulesApply is false, with Note saying why, where the rules were not
 	// made for the plant (one that is unstable in open loop).
@@ -153,7 +173,10 @@ type Vary struct {
 	SampleTime float64    `json:"sample_time,omitempty"`
 	Integral   string     `json:"integral,omitempty"`
 	Intervals  []Interval `json:"intervals"`
-	Caution    string     `json:"caution"`
+	// Pade compares the intervals with those of the Padé-approximated
+	// loop (dead time only).
+	Pade    *PadeVary `json:"pade,omitempty"`
+	Caution string    `json:"caution"`
 }
 
 // Interval is one stable interval (Lo, Hi) and how each end is reached.

@@ -5,17 +5,6 @@ import (
 	"gainscape/regions/unitcircle"
 )
 
-// candidates returns the parameter values at which a root may reach the
-// stability boundary of the loop: the imaginary axis of a continuous-time
-// loop (line.candidates) or the unit circle of a sampled one
-// (circleCandidates).
-func (s *search) candidates() []candidate {
-	if s.sample > 0 {
-		return s.line.circleCandidates(s.sample)
-	}
-	return s.line.candidates()
-}
-
 // circleCandidates returns the values of k at which p(z; k) = a(z) +
 // k·b(z), the characteristic polynomial of a loop sampled every T time
 // units, has a root on the unit circle or loses its leading coefficient

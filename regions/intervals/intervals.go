@@ -18,6 +18,10 @@
 // loop takes the same path with the unit circle in place of the axis: its
 // candidates are where a root passes z = 1, z = −1, e^(±jθ) or infinity
 // (see circle.go), and its pieces are tested by the loop's own test.
+//
+// A loop with dead time has a quasi-polynomial P(s; k) + Q(s; k)·e^(−Ls)
+// instead: its crossing values come from dpartition.Crossings and its
+// pieces are tested with the quasi-polynomial's count (see delaySearch).
 package intervals
 
 import (
@@ -63,8 +67,9 @@ const nearZero = 1e-6
 // Stable returns every maximal sub-interval of [lo, hi] in which the closed
 // loop is stable when parameter param of loop.Family varies and every other
 // parameter keeps its value in loop.Values. Stable means no root in the
-// closed right half plane and no drop of degree (the sign-array test of
-// routh.Analyze). Intervals are returned in increasing order; an unstable
+// closed right half plane and no drop of degree (the loop's stability
+// test: the sign array of routh.Analyze, or for a loop with dead time the
+// count of package delay). Intervals are returned in increasing order; an unstable
 // window gives none. An end at lo or hi is of kind Window unless the loop
 // has a boundary there itself. Where a pair of roots touches the imaginary
 // axis and returns, the loop is unstable at that one value, which splits
@@ -84,24 +89,43 @@ func Stable(l loop.Loop, param int, lo, hi float64) ([]Interval, error) {
 	if math.IsNaN(lo) || math.IsNaN(hi) || math.IsInf(lo, 0) || math.IsInf(hi, 0) || !(lo < hi) {
 		return nil, fmt.Errorf("stable intervals of %s: window [%g, %g] must be finite with lower end below upper end", name, lo, hi)
 	}
+	if l.Plant.Delay > 0 {
+		s, err := delaySearch(l, param, lo, hi)
+		if err != nil {
+			return nil, fmt.Errorf("stable intervals of %s: %w", name, err)
+		}
+		return s.run(), nil
+	}
 	ln, err := newLine(l, param)
 	if err != nil {
 		return nil, fmt.Errorf("stable intervals of %s: %w", name, err)
 	}
 	test := l.Test()
-	s := search{line: ln, lo: lo, hi: hi, test: test, counter: test.NewCounter(ln.len()), p: make(poly.Poly, ln.len()), sample: l.Plant.Sample}
+	p := make(poly.Poly, ln.len())
+	at := func(k float64, fresh bool) stability.Function {
+		if fresh {
+			return stability.Function{P: ln.at(make(poly.Poly, ln.len()), k)}
+		}
+		return stability.Function{P: ln.at(p, k)}
+	}
+	cands := ln.candidates()
+	if T := l.Plant.Sample; T > 0 {
+		cands = ln.circleCandidates(T)
+	}
+	s := search{at: at, cands: cands, lo: lo, hi: hi, test: test, counter: test.NewCounter(ln.len())}
 	return s.run(), nil
 }
 
 // search holds the state of one call of Stable.
 type search struct {
-	line    line
+	// at returns the characteristic function at k, in scratch space
+	// unless fresh is set.
+	at func(k float64, fresh bool) stability.Function
+	// cands are the solutions of the D-partition equations.
+	cands   []candidate
 	lo, hi  float64
 	test    stability.Test
 	counter stability.Counter
-	p       poly.Poly // scratch
-	// sample is the sample time of a sampled-data loop, 0 otherwise.
-	sample float64
 	// scale is the loop's own scale of the parameter (see Accuracy).
 	scale float64
 }
@@ -114,15 +138,13 @@ func (s *search) tol(k float64) float64 {
 // stable reports whether the loop is stable at k: no root in the closed
 // right half plane and no drop of degree.
 func (s *search) stable(k float64) bool {
-	return s.counter.Count(stability.Function{P: s.line.at(s.p, k)}).Stable()
+	return s.counter.Count(s.at(k, false)).Stable()
 }
 
 // classify names the crossing between a and b, which bracket a boundary
 // to within rounding (or are one point on it).
 func (s *search) classify(a, b float64) candidate {
-	fa := stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), a)}
-	fb := stability.Function{P: s.line.at(make(poly.Poly, s.line.len()), b)}
-	cr := s.test.Classify(fa, fb)
+	cr := s.test.Classify(s.at(a, true), s.at(b, true))
 	return candidate{kind: cr.Kind, omega: cr.Omega}
 }
 
@@ -136,7 +158,7 @@ type group struct {
 // run splits the window at the candidate values, tests each piece, merges
 // stable neighbours and refines the ends.
 func (s *search) run() []Interval {
-	cands := s.candidates()
+	cands := s.cands
 	sort.Slice(cands, func(i, j int) bool { return cands[i].k < cands[j].k })
 	// The window width alone is no scale: over kp = 0…1e20 every boundary
 	// near kp = 8 would look like zero.

@@ -98,11 +98,12 @@ func (l Loop) Characteristic() poly.Poly {
 // Function returns the closed-loop characteristic function at the loop's
 // parameter values, the argument of the loop's stability Test: the
 // characteristic polynomial, or for a loop with dead time
-// Δ(s) = Dc·D + Nc·N·e^(−Delay·s).
+// Δ(s) = Dc·D + Nc·N·e^(−Delay·s), both parts without leading
+// coefficients that are exactly zero, as Characteristic.
 func (l Loop) Function() stability.Function {
 	if l.Plant.Delay > 0 {
 		num, den := l.Open()
-		return stability.Function{P: den, Q: num, Delay: l.Plant.Delay}
+		return stability.Function{P: den.Trim(0), Q: num.Trim(0), Delay: l.Plant.Delay}
 	}
 	return stability.Function{P: l.Characteristic()}
 }

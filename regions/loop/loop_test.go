@@ -56,3 +56,20 @@ func TestWithCopies(t *testing.T) {
 		t.Error("wrong number of values accepted")
 	}
 }
+
+// TestFunctionWithDeadTime: ideal PID (tau = 0) on e^(−s)/(s+1), worked by
+// hand: P = Dc·D = s(s+1) = s² + s, whose s³ term from tau·s² is exactly
+// zero and so absent (no root at infinity), and Q = Nc·N = kd·s² + kp·s + ki.
+func TestFunctionWithDeadTime(t *testing.T) {
+	l := Loop{Plant: Plant{Num: poly.Poly{1}, Den: poly.Poly{1, 1}, Delay: 1}, Family: family.PID{}, Values: []float64{1, 2, 3, 0}}
+	f := l.Function()
+	want := struct{ p, q poly.Poly }{poly.Poly{0, 1, 1}, poly.Poly{2, 1, 3}}
+	if f.Delay != 1 || len(f.P) != len(want.p) || len(f.Q) != len(want.q) {
+		t.Fatalf("function %+v; want P %v, Q %v", f, want.p, want.q)
+	}
+	for i := range f.P {
+		if f.P[i] != want.p[i] || f.Q[i] != want.q[i] {
+			t.Fatalf("function %+v; want P %v, Q %v", f, want.p, want.q)
+		}
+	}
+}

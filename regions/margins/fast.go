@@ -43,6 +43,11 @@ type MsEvaluator struct {
 	pw     []float64 // len(w)×stride weights: pw[i*stride+k] = ω_i^k·σ_k
 	stride int       // largest coefficient count accepted
 	steps  int       // golden-section steps
+	// delay is the dead time of the loops, and rot[2i], rot[2i+1] the
+	// cosine and sine of ω_i·delay (nil without dead time); see
+	// NewMsEvaluatorDelay.
+	delay float64
+	rot   []float64
 }
 
 // DefaultMsPerDecade and DefaultMsSteps are the grid density and
@@ -77,6 +82,11 @@ func NewMsEvaluatorNear(wmin, wmax float64, perDecade, maxLen, steps int, roots 
 	if len(w) < 3 {
 		w = logGrid(wmin, wmax, 3)
 	}
+	return newMsGrid(w, maxLen, steps), nil
+}
+
+// newMsGrid returns an evaluator without dead time on the frequencies w.
+func newMsGrid(w []float64, maxLen, steps int) *MsEvaluator {
 	n := len(w)
 	e := &MsEvaluator{
 		w:      w,
@@ -98,14 +108,15 @@ func NewMsEvaluatorNear(wmin, wmax float64, perDecade, maxLen, steps int, roots 
 			pk *= x
 		}
 	}
-	return e, nil
+	return e
 }
 
 // Len returns the number of grid frequencies.
 func (e *MsEvaluator) Len() int { return len(e.w) }
 
 // Ms returns max over ω ≥ 0 of |Den(jω)/(Den(jω)+Num(jω))| for the loop
-// L = num/den; +Inf when the closed loop has a pole on the grid or at
+// L = num/den (with Num(jω)·e^(−jωL) for an evaluator built with a dead
+// time L, NewMsEvaluatorDelay); +Inf when the closed loop has a pole on the grid or at
 // ω = 0 exactly. It allocates nothing. It panics if num or den has more
 // coefficients than the evaluator was built for.
 func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
@@ -132,6 +143,10 @@ func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
 		}
 		if k < ld {
 			dr += den[k] * row[k]
+		}
+		if e.rot != nil {
+			c, s := e.rot[2*i], e.rot[2*i+1]
+			nr, ni = nr*c+ni*s, ni*c-nr*s
 		}
 		cr, ci := dr+nr, di+ni
 		// |S|² = |D|²/|C|²; square roots wait until the maximum is known.
@@ -160,7 +175,7 @@ func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
 			ms = s0
 		}
 	}
-	if sInf, _ := limitAtInfinity(num, den); sInf > ms {
+	if sInf, _ := limitWithDelay(num, den, e.delay); sInf > ms {
 		ms = sInf
 	}
 	return ms
@@ -171,24 +186,24 @@ func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
 func (e *MsEvaluator) goldenS(num, den poly.Poly, a, b float64) float64 {
 	const g = 0.6180339887498949
 	c, d := b-g*(b-a), a+g*(b-a)
-	fc, fd := sAbs(num, den, math.Exp(c)), sAbs(num, den, math.Exp(d))
+	l := Loop{Num: num, Den: den, Delay: e.delay}
+	fc, fd := l.sAbs(math.Exp(c)), l.sAbs(math.Exp(d))
 	for i := 0; i < e.steps; i++ {
 		if fc >= fd {
 			b, d, fd = d, c, fc
 			c = b - g*(b-a)
-			fc = sAbs(num, den, math.Exp(c))
+			fc = l.sAbs(math.Exp(c))
 		} else {
 			a, c, fc = c, d, fd
 			d = a + g*(b-a)
-			fd = sAbs(num, den, math.Exp(d))
+			fd = l.sAbs(math.Exp(d))
 		}
 	}
 	return max(fc, fd)
 }
 
-// sAbs returns |S(jω)| = |Den|/|Den+Num| at ω.
-func sAbs(num, den poly.Poly, w float64) float64 {
-	nr, ni := evalJW(num, w)
-	dr, di := evalJW(den, w)
+// sAbs returns |S(jω)| = |Den|/|Den+Num·e^(−jωL)| at ω.
+func (l Loop) sAbs(w float64) float64 {
+	nr, ni, dr, di := l.response(w)
 	return math.Hypot(dr, di) / math.Hypot(dr+nr, di+ni)
 }

@@ -7,11 +7,14 @@ import (
 	"gainscape/regions/poly"
 )
 
-// Loop is the open loop L(s) = Num(s)/Den(s) of a unity negative-feedback
-// loop, Num = Nc·N and Den = Dc·D for plant N/D and controller Nc/Dc.
-// Num and Den are expected to have no common root on the imaginary axis.
+// Loop is the open loop L(s) = Num(s)/Den(s)·e^(−Delay·s) of a unity
+// negative-feedback loop, Num = Nc·N and Den = Dc·D for plant
+// N/D·e^(−Delay·s) and controller Nc/Dc. Num and Den are expected to have
+// no common root on the imaginary axis.
 type Loop struct {
 	Num, Den poly.Poly
+	// Delay is the dead time of the loop, 0 for none (see delay.go).
+	Delay float64
 }
 
 // NewLoop returns the open loop of plant N/D under controller Nc/Dc.
@@ -25,8 +28,7 @@ func (l Loop) Characteristic() poly.Poly { return poly.Add(l.Den, l.Num) }
 // At returns L(jω). At a pole on the imaginary axis it returns an infinite
 // complex value (cmplx.IsInf reports it).
 func (l Loop) At(w float64) complex128 {
-	nr, ni := evalJW(l.Num, w)
-	dr, di := evalJW(l.Den, w)
+	nr, ni, dr, di := l.response(w)
 	if dr == 0 && di == 0 {
 		return complex(math.Inf(1), math.Inf(1))
 	}

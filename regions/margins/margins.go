@@ -37,7 +37,8 @@ type Margins struct {
 	GainCrossover float64
 	// PhaseCrossings lists every phase crossover (arg L = −180°, that is
 	// Im L = 0 with Re L < 0), ascending, with its gain margin. A crossing
-	// at ω = 0 (L(0) real negative) is included.
+	// at ω = 0 (L(0) real negative) is included. A loop with dead time has
+	// infinitely many: the lowest twelve are listed (see delay.go).
 	PhaseCrossings []Crossing
 	// GainCrossings lists every gain crossover (|L| = 1), ascending, with
 	// its phase margin.
@@ -140,7 +141,12 @@ const (
 // neighbouring grid points, to 1e-10 in ln ω; the largest of the refined
 // peaks and the two ends is reported.
 //
-// It returns an error for non-finite coefficients or a zero Den.
+// A loop with dead time is scanned on a finer grid, and its phase
+// crossovers are listed only up to a frequency past which they no longer
+// matter: see Loop.Delay's notes in delay.go.
+//
+// It returns an error for non-finite coefficients, a zero Den or a dead
+// time that is negative or not finite.
 func (l Loop) Margins() (Margins, error) {
 	if !l.Num.Finite() || !l.Den.Finite() {
 		return Margins{}, fmt.Errorf("margins: loop coefficients are not finite")
@@ -148,13 +154,20 @@ func (l Loop) Margins() (Margins, error) {
 	if l.Den.Degree() < 0 {
 		return Margins{}, fmt.Errorf("margins: the loop denominator is zero")
 	}
+	if !(l.Delay >= 0) || math.IsInf(l.Delay, 1) {
+		return Margins{}, fmt.Errorf("margins: the dead time %g is not a finite non-negative number", l.Delay)
+	}
 	lo, hi, roots := l.rangeAndRoots()
-	return measure(l, scanGrid(lo, hi, roots)), nil
+	w, top := l.scan(lo, hi, roots)
+	m := measure(l, w, top)
+	m.PhaseCrossings = l.listed(m.PhaseCrossings)
+	return m, nil
 }
 
 // measure scans the response r on the frequencies w (ascending) for its
-// crossovers and peaks, as Loop.Margins describes.
-func measure(r response, w []float64) Margins {
+// crossovers and peaks, as Loop.Margins describes; phase crossovers above
+// top (+Inf: none) are not taken.
+func measure(r response, w []float64, top float64) Margins {
 	ev := make([]point, len(w))
 	for i, x := range w {
 		ev[i] = r.point(x)
@@ -163,7 +176,7 @@ func measure(r response, w []float64) Margins {
 		GainMargin: math.Inf(1), PhaseCrossover: math.NaN(),
 		PhaseMargin: math.Inf(1), GainCrossover: math.NaN(),
 	}
-	m.PhaseCrossings = phaseCrossings(r, w, ev)
+	m.PhaseCrossings = below(phaseCrossings(r, w, ev), top)
 	m.GainCrossings = gainCrossings(r, w, ev)
 	for _, c := range m.PhaseCrossings {
 		if math.Abs(math.Log(c.Margin)) < math.Abs(math.Log(m.GainMargin)) {
@@ -189,9 +202,7 @@ type point struct {
 }
 
 func (l Loop) point(w float64) point {
-	nr, ni := evalJW(l.Num, w)
-	dr, di := evalJW(l.Den, w)
-	return pointOf(nr, ni, dr, di)
+	return pointOf(l.response(w))
 }
 
 // phaseCrossings finds every ω with arg L = −180°.
@@ -374,7 +385,7 @@ func (l Loop) ends() (s0, t0, sInf, tInf float64) {
 	if n0 == 0 && d0 == 0 {
 		s0, t0 = math.NaN(), math.NaN()
 	}
-	sInf, tInf = limitAtInfinity(l.Num, l.Den)
+	sInf, tInf = limitWithDelay(l.Num, l.Den, l.Delay)
 	return
 }
 

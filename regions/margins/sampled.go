@@ -271,5 +271,5 @@ func (l SampledLoop) Margins() (Margins, error) {
 		return Margins{}, fmt.Errorf("margins: the loop denominator is zero")
 	}
 	lo, hi, roots := l.rangeAndRoots()
-	return measure(l.prepared(), scanGrid(lo, hi, roots)), nil
+	return measure(l.prepared(), scanGrid(lo, hi, roots), math.Inf(1)), nil
 }

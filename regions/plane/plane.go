@@ -166,6 +166,15 @@ func NewLine(l loop.Loop, param int) Line {
 	return Line{A: pc.A, B: pc.B}
 }
 
+// NewOpenLines returns the open-loop numerator Nc·N and denominator Dc·D
+// of l along parameter param, formed exactly as NewLine forms the
+// characteristic polynomial: the parts of a loop with dead time,
+// Δ(s; k) = Dc·D + Nc·N·e^(−Ls).
+func NewOpenLines(l loop.Loop, param int) (num, den Line) {
+	pn, pd, _ := build(l, param, param)
+	return Line{A: pn.A, B: pn.B}, Line{A: pd.A, B: pd.B}
+}
+
 // Len returns the number of coefficients of the pencil's polynomials.
 func (p Pencil) Len() int { return len(p.A) }
 

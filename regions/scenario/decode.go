@@ -182,8 +182,9 @@ func bindings(s *Scenario, markTables *[]bool) map[string]any {
 			Sample      intoNumber  `toml:"sample"`
 			Integral    intoString  `toml:"integral"`
 			Prewarp     intoNumber  `toml:"prewarp"`
+			Pade        intoInt     `toml:"pade"`
 		}{intoString{&l.Plant}, intoNumbers{&l.Numerator}, intoNumbers{&l.Denominator}, intoString{&l.Controller}, intoString{&l.TimeUnit},
-			intoNumber{&l.Sample}, intoString{&l.Integral}, intoNumber{&l.Prewarp}},
+			intoNumber{&l.Sample}, intoString{&l.Integral}, intoNumber{&l.Prewarp}, intoInt{&l.Pade}},
 		"axes": &struct {
 			X    intoAxis `toml:"x"`
 			Y    intoAxis `toml:"y"`

@@ -62,6 +62,7 @@ func encode(w io.Writer, s Scenario, name string) error {
 	fmt.Fprintf(&b, "sample = %s    # sample time of a digital controller; 0: continuous\n", formatNumber(l.Sample))
 	fmt.Fprintf(&b, "integral = %s    # a digital integral: backward, forward or trapezoid\n", quote(l.Integral))
 	fmt.Fprintf(&b, "prewarp = %s    # pre-warp frequency of a digital lead or lag; 0: none\n", formatNumber(l.Prewarp))
+	fmt.Fprintf(&b, "pade = %d    # Padé order of the cross-check of a loop with dead time; 0: chosen\n", l.Pade)
 
 	a := s.Axes
 	b.WriteString("\n[axes]\n")

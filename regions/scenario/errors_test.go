@@ -137,6 +137,8 @@ func TestValidateErrors(t *testing.T) {
 			s.Loop.Plant, s.Loop.Numerator, s.Loop.Denominator = "", []float64{1}, []float64{0, 0}
 		}, "loop.denominator", "every coefficient is zero"},
 		{"no controller", func(s *Scenario) { s.Loop.Controller = "" }, "loop.controller", "no controller family"},
+		{"Padé order too high", func(s *Scenario) { s.Loop.Pade = 31 }, "loop.pade", "31 is not an order"},
+		{"Padé order negative", func(s *Scenario) { s.Loop.Pade = -1 }, "loop.pade", "-1 is not an order"},
 		{"grid too coarse", func(s *Scenario) { s.Axes.Columns = 1 }, "axes.grid", "1x300 has 1 columns"},
 		{"grid too fine", func(s *Scenario) { s.Axes.Rows = 5000 }, "axes.grid", "5000 rows"},
 		{"axis reversed", func(s *Scenario) { s.Axes.X.Min = 7 }, "axes.x", "kp=7:6"},

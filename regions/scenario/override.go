@@ -23,6 +23,7 @@ var overrides = []struct {
 	{"sample", []string{"loop.sample"}, func(s, o *Scenario) { s.Loop.Sample = o.Loop.Sample }},
 	{"integral", []string{"loop.integral"}, func(s, o *Scenario) { s.Loop.Integral = o.Loop.Integral }},
 	{"prewarp", []string{"loop.prewarp"}, func(s, o *Scenario) { s.Loop.Prewarp = o.Loop.Prewarp }},
+	{"pade", []string{"loop.pade"}, func(s, o *Scenario) { s.Loop.Pade = o.Loop.Pade }},
 	{"set", nil, func(s, o *Scenario) { s.Fixed = mergeValues(s.Fixed, o.Fixed) }},
 	{"x", []string{"axes.x"}, func(s, o *Scenario) { s.Axes.X = o.Axes.X }},
 	{"y", []string{"axes.y"}, func(s, o *Scenario) { s.Axes.Y = o.Axes.Y }},

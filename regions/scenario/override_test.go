@@ -18,7 +18,7 @@ func flagsGiven(names ...string) func(string) bool {
 // different from tank in every field.
 func fromFlags() Scenario {
 	return Scenario{
-		Loop:  Loop{Plant: "2/(s+1)^2", Numerator: []float64{2}, Denominator: []float64{1, 2, 1}, Controller: "pi", TimeUnit: "min", Sample: 0.5, Integral: "forward", Prewarp: 3},
+		Loop:  Loop{Plant: "2/(s+1)^2", Numerator: []float64{2}, Denominator: []float64{1, 2, 1}, Controller: "pi", TimeUnit: "min", Sample: 0.5, Integral: "forward", Prewarp: 3, Pade: 4},
 		Axes:  Axes{X: spec.Axis{Param: "ki", Min: 0, Max: 1}, Y: spec.Axis{Param: "kd", Min: 0, Max: 2}, Columns: 50, Rows: 60},
 		Fixed: []spec.Value{{Param: "tau", V: 0.05}, {Param: "kp", V: 3}},
 		Overlays: Overlays{Decay: false, DecayLevels: []float64{9}, DampingLevels: []float64{0.9}, MsLevels: []float64{3},

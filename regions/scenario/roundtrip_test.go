@@ -72,6 +72,10 @@ func TestRoundTrip(t *testing.T) {
 			s.Overlays = Overlays{}
 			s.Output.Data, s.Output.CSV, s.Output.Note, s.Output.Title = "", "", "", ""
 		}},
+		{"a plant with dead time and a Padé order", func(s *Scenario) {
+			s.Loop.Plant = "2*exp(-1.5*s)/((4*s+1)*(s+1))"
+			s.Loop.Pade = 5
+		}},
 		{"smallest and largest grid", func(s *Scenario) {
 			s.Axes.Columns, s.Axes.Rows = 2, spec.MaxNodesPerAxis
 		}},

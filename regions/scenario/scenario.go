@@ -68,6 +68,11 @@ type Loop struct {
 	// lead, lag or lead-lag at that frequency, in rad per time unit
 	// (--prewarp); 0 leaves it unwarped.
 	Prewarp float64
+	// Pade is the order of the Padé approximant with which a loop with
+	// dead time is mapped a second time, by the sign array, to show where
+	// the approximation would mislead (--pade); 0 chooses it from the
+	// window's largest ωL. A loop without dead time ignores it.
+	Pade int
 }
 
 // Axes is the window: the two swept parameters and the grid over them.
@@ -121,6 +126,9 @@ type Output struct {
 // TimeUnits lists the units of time a scenario may name, as written in
 // labels.
 var TimeUnits = []string{"s", "ms", "us", "min", "h"}
+
+// MaxPade is the highest order of the Padé approximant (delay.MaxPadeOrder).
+const MaxPade = 30
 
 // DPI limits of PNG output.
 const (

@@ -77,6 +77,9 @@ func (l Loop) validate(v *validator) {
 	if !slices.Contains([]string{"", "backward", "forward", "trapezoid"}, l.Integral) {
 		v.add("loop.integral", "%s is not a rule for the integral; use backward, forward or trapezoid", quoteShort(l.Integral))
 	}
+	if l.Pade < 0 || l.Pade > MaxPade {
+		v.add("loop.pade", "%d is not an order of the Padé approximant; use 1 to %d, or 0 to have it chosen", l.Pade, MaxPade)
+	}
 	if !slices.Contains(TimeUnits, l.TimeUnit) {
 		v.add("loop.time_unit", "%s is not a unit of time; use one of %s", quoteShort(l.TimeUnit), strings.Join(TimeUnits, ", "))
 	}

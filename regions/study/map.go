@@ -63,6 +63,9 @@ func (j *MapJob) Warnings() []string {
 			}
 		}
 	}
+	if j.sc.Loop.Pade > 0 && s.Plant.Delay == 0 {
+		return []string{fmt.Sprintf("warning: --pade %d has no effect: the plant has no dead time", j.sc.Loop.Pade)}
+	}
 	if hi > 1e100 || lo < 1e-100 || hi/lo > 1e150 {
 		return []string{fmt.Sprintf("warning: characteristic coefficients range from %.3g to %.3g; the sign array may lose meaning, and nodes it cannot decide are marked undecided — consider rescaling time (s) or gains", lo, hi)}
 	}
@@ -96,6 +99,17 @@ type MapResult struct {
 	// Compare holds the edges of the same window at other sample times,
 	// when the scenario asks for them (see compareSamples).
 	Compare []SampleEdges
+	// Delay is the loop's dead time, 0 for none. A map of a loop with dead
+	// time also has, for each curve, the D-partition branch of each of its
+	// points (Branches, see branchesOf), the number of nodes of neutral
+	// type with infinitely many unstable roots (NeutralNodes), the check
+	// of its counts by a second method (Confirmation) and the comparison
+	// with the map of its Padé-approximated loop (Pade).
+	Delay        float64
+	Branches     [][]int
+	NeutralNodes int
+	Confirmation *export.Confirmation
+	Pade         *export.PadeMap
 }
 
 // Run computes the map, its edges and the overlays the scenario asks for.
@@ -121,6 +135,11 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 		// A crossing no other joins is a point, not an edge.
 		if len(c.Points) > 1 {
 			res.Edges[c.Kind]++
+		}
+	}
+	if s.Plant.Delay > 0 {
+		if err := res.deadTime(ctx, s, j.sc.Loop.Pade, opt); err != nil {
+			return nil, err
 		}
 	}
 	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
@@ -162,6 +181,11 @@ func (r *MapResult) Data() *export.Region {
 	}
 	doc.Compare = compareData(r.Compare)
 	doc.Boundaries = boundaries(r.Curves)
+	for i, c := range r.Curves {
+		if r.Branches != nil && c.Kind == stability.Complex {
+			doc.Boundaries[i].Branches = r.Branches[i]
+		}
+	}
 	st := r.Stats
 	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, MarginalNodes: st.Marginal, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
 	if st.Stable > 0 {
@@ -173,5 +197,6 @@ func (r *MapResult) Data() *export.Region {
 	if r.Overlays != nil {
 		doc.Extra = r.Overlays.data()
 	}
+	doc.Delay, doc.Pade, doc.Confirmation, doc.Summary.NeutralNodes = r.Delay, r.Pade, r.Confirmation, r.NeutralNodes
 	return doc
 }

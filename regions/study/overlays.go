@@ -79,7 +79,7 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 			return nil, err
 		}
 		o.Sensitivity = ms
-		o.Exact = refinedMs(s.Plant.Sample)
+		o.Exact = refinedMs(s.Plant.Sample, s.Plant.Delay)
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -140,17 +140,17 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	return res, nil
 }
 
-// refinedMs returns Ms as the probe computes it (margins.Loop.Margins, or
-// SampledLoop.Margins for a loop sampled every T > 0), with which the
-// searches check the points they return.
-func refinedMs(T float64) overlay.Sensitivity {
+// refinedMs returns Ms as the probe computes it (margins.Loop.Margins
+// with the dead time, or SampledLoop.Margins for a loop sampled every
+// T > 0), with which the searches check the points they return.
+func refinedMs(T, delay float64) overlay.Sensitivity {
 	return func(num, den poly.Poly) float64 {
 		var m margins.Margins
 		var err error
 		if T > 0 {
 			m, err = margins.SampledLoop{Num: num.Clone(), Den: den.Clone(), T: T}.Margins()
 		} else {
-			m, err = margins.Loop{Num: num.Clone(), Den: den.Clone()}.Margins()
+			m, err = margins.Loop{Num: num.Clone(), Den: den.Clone(), Delay: delay}.Margins()
 		}
 		if err != nil {
 			return math.NaN()
@@ -172,6 +172,9 @@ func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
 	centre := s.At(0.5*(s.X.Min+s.X.Max), 0.5*(s.Y.Min+s.Y.Max))
 	num, den := centre.Open()
 	lo, hi := margins.Loop{Num: num, Den: den}.FrequencyRange()
+	if s.Plant.Delay > 0 {
+		hi = delayMsTop(s, lo, hi)
+	}
 	// The plant's own resonances are the same at every node; the grid is
 	// enriched around them so that no narrow peak of |S| is missed.
 	var roots []complex128
@@ -180,7 +183,7 @@ func msEvaluator(s plane.Setup) (*margins.MsEvaluator, error) {
 			roots = append(roots, r...)
 		}
 	}
-	return margins.NewMsEvaluatorNear(lo, hi, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots)
+	return margins.NewMsEvaluatorDelay(lo, hi, margins.DefaultMsPerDecade, max(s.OpenNum.Len(), s.OpenDen.Len()), margins.DefaultMsSteps, roots, s.Plant.Delay)
 }
 
 // markPoint places a mark in the plane: it must give both axis
@@ -217,12 +220,12 @@ func markPoint(s plane.Setup, vals []spec.Value) (export.Point, error) {
 func pointAt(s plane.Setup, x, y float64) (export.Point, error) {
 	l := s.At(x, y)
 	p := export.Point{Values: valueMap(l), X: export.Number(x), Y: export.Number(y)}
-	var doc export.Probe
-	if err := poleFigures(&doc, l.Characteristic(), l.Plant.Sample); err != nil {
+	var pr export.Probe
+	if err := probePoles(&pr, l, l.Function()); err != nil {
 		return p, err
 	}
-	p.Decay, p.Damping = export.Number(doc.DecayRate), export.Number(doc.MinDamping)
-	p.Stable = doc.DecayRate > 0
+	p.Decay, p.Damping = pr.DecayRate, pr.MinDamping
+	p.Stable = pr.DecayRate > 0
 	mg, err := loopMargins(l)
 	p.Ms = export.Number(math.NaN())
 	if err == nil && p.Stable {

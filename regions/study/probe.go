@@ -18,6 +18,9 @@ import (
 type ProbeRequest struct {
 	Loop LoopSpec
 	X, Y string
+	// Pade is the order of the Padé approximant a loop with dead time is
+	// compared with; 0 chooses it (padeProbe).
+	Pade int
 }
 
 // ProbeReport is everything probe says about one design point.
@@ -45,27 +48,27 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if err != nil {
 		return nil, err
 	}
-	char := l.Characteristic()
-	if !char.Finite() {
+	f := l.Function()
+	if !f.P.Finite() || !f.Q.Finite() {
 		return nil, inputErr("--set", "fixed", "", "the characteristic polynomial has non-finite coefficients")
 	}
 	units := Units{req.Loop.TimeUnit}
 	doc := &export.Probe{
 		Plant: req.Loop.PlantText(), Controller: l.Family.Name(), TimeUnit: units.Key(),
-		Values: valueMap(l), Characteristic: char.Descending(), Caution: Caution,
+		Values: valueMap(l), Characteristic: f.P.Descending(), Caution: Caution,
 	}
 	sampling := sampledOf(l, req.Loop)
 	if sampling != nil {
 		doc.SampleTime, doc.Integral = sampling.T, sampling.Integral
 	}
-	rep := l.Test().Report(l.Function())
+	if !f.Rational() {
+		doc.Delay, doc.Delayed = f.Delay, f.Q.Descending()
+	}
+	rep := l.Test().Report(f)
 	if rep.Unstable < 0 {
 		return nil, fmt.Errorf("the %s cannot decide this point: %s", l.Test().Name(), rep.Reason)
 	}
-	for _, r := range rep.Table {
-		doc.SignArray = append(doc.SignArray, export.SignRow{Label: r.Label, Power: r.Power, Entries: r.Entries, Epsilon: r.Epsilon, Auxiliary: r.Auxiliary})
-	}
-	doc.TestNotes = rep.Notes
+	probeWorking(doc, rep, f)
 	if rep.Auxiliary != nil {
 		doc.Aux = rep.Auxiliary.Descending()
 	}
@@ -73,12 +76,16 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	doc.CountFrom = rep.Method
 	doc.JWOmegas = append([]float64{}, rep.Omegas...)
 
-	if err := poleFigures(doc, char, l.Plant.Sample); err != nil {
+	if err := probePoles(doc, l, f); err != nil {
 		return nil, err
 	}
 	mg, err := loopMargins(l)
 	if err != nil {
 		return nil, err
+	}
+	doc.DelayMargin = export.Number(math.NaN())
+	if l.Plant.Sample == 0 {
+		doc.DelayMargins, doc.DelayMargin = delayMargins(mg)
 	}
 	doc.GainMargin, doc.PhaseCrossover = export.Number(mg.GainMargin), export.Number(mg.PhaseCrossover)
 	doc.GainMargins = []export.GainMargin{}
@@ -99,13 +106,18 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 		doc.GainMarginDB = export.Number(math.NaN())
 	}
 	doc.PhaseMargin, doc.GainCrossover = export.Number(mg.PhaseMargin), export.Number(mg.GainCrossover)
-	doc.Ms, doc.MsFreq, doc.Mt, doc.MtFreq = mg.Ms, export.Number(mg.MsFreq), mg.Mt, export.Number(mg.MtFreq)
+	doc.Ms, doc.MsFreq, doc.Mt, doc.MtFreq = export.Number(mg.Ms), export.Number(mg.MsFreq), export.Number(mg.Mt), export.Number(mg.MtFreq)
 
 	if doc.Fragility, err = fragility(ctx, l, req.X, req.Y); err != nil {
 		return nil, err
 	}
 	if doc.Ultimate, err = ultimate(l, sampling); err != nil {
 		return nil, err
+	}
+	if l.Plant.Delay > 0 {
+		if doc.Pade, err = padeProbe(l, doc, mg, req.Pade); err != nil {
+			return nil, err
+		}
 	}
 	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units, Sampled: sampling}, nil
 }
@@ -116,9 +128,9 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 // a sampled loop (sampling not nil) the rules set the digital controller
 // of the same structure (see ultimateGain).
 func ultimate(l loop.Loop, sampling *Sampling) (*export.Ultimate, error) {
-	u := ultimateGain(l)
-	if u == nil {
-		return nil, nil
+	u, err := ultimateGain(l)
+	if u == nil || err != nil {
+		return nil, err
 	}
 	ku, tu := u.Ku, u.Tu
 	if rhp := openLoopUnstable(l); rhp > 0 {
@@ -142,7 +154,8 @@ func ultimate(l loop.Loop, sampling *Sampling) (*export.Ultimate, error) {
 				rl.Values[i] = r.Kd
 			}
 		}
-		v := rl.Test().NewCounter(len(rl.Characteristic())).Count(rl.Function())
+		f := rl.Function()
+		v := rl.Test().NewCounter(max(len(f.P), len(f.Q))).Count(f)
 		rule.Stable, rule.RHP = v.Stable(), max(v.Unstable, 0)
 		u.Rules = append(u.Rules, rule)
 	}

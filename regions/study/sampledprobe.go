@@ -29,7 +29,7 @@ func poleFigures(doc *export.Probe, char poly.Poly, T float64) error {
 		for _, p := range poles {
 			doc.Poles = append(doc.Poles, [2]float64{real(p), imag(p)})
 		}
-		doc.DecayRate, doc.MinDamping = margins.DecayRate(poles), margins.MinDamping(poles)
+		doc.DecayRate, doc.MinDamping = export.Number(margins.DecayRate(poles)), export.Number(margins.MinDamping(poles))
 		return nil
 	}
 	slices.SortStableFunc(poles, func(a, b complex128) int {
@@ -50,7 +50,7 @@ func poleFigures(doc *export.Probe, char poly.Poly, T float64) error {
 	g := unitcircle.GradeRoots(poles, T)
 	r := g.Radius
 	doc.RootRadius = &r
-	doc.DecayRate, doc.MinDamping = g.Decay, g.Damping
+	doc.DecayRate, doc.MinDamping = export.Number(g.Decay), export.Number(g.Damping)
 	return nil
 }
 
@@ -61,7 +61,7 @@ func loopMargins(l loop.Loop) (margins.Margins, error) {
 	if T := l.Plant.Sample; T > 0 {
 		return margins.SampledLoop{Num: num, Den: den, T: T}.Margins()
 	}
-	return margins.Loop{Num: num, Den: den}.Margins()
+	return margins.Loop{Num: num, Den: den, Delay: l.Plant.Delay}.Margins()
 }
 
 // ultimateGain returns the ultimate gain and period of the
@@ -72,20 +72,20 @@ func loopMargins(l loop.Loop) (margins.Margins, error) {
 // for continuous-time controllers, are then applied as they stand to the
 // digital controller of the same structure, and each setting is checked
 // with the unit-circle test, as the note says.
-func ultimateGain(l loop.Loop) *export.Ultimate {
+func ultimateGain(l loop.Loop) (*export.Ultimate, error) {
 	if T := l.Plant.Sample; T > 0 {
 		ku, tu, kind, ok := margins.SampledUltimate(l.Plant.Num, l.Plant.Den, T, l.Test())
 		if !ok {
-			return nil
+			return nil, nil
 		}
 		return &export.Ultimate{Ku: ku, Tu: tu, Kind: kind.String(), RulesApply: true,
-			Method: "Ku and Tu of the sampled proportional-only loop, where its roots cross the unit circle; the rules were made for continuous-time controllers and are applied as they stand to the digital controller of the same structure, each setting checked with the unit-circle test"}
+			Method: "Ku and Tu of the sampled proportional-only loop, where its roots cross the unit circle; the rules were made for continuous-time controllers and are applied as they stand to the digital controller of the same structure, each setting checked with the unit-circle test"}, nil
 	}
-	ku, tu, ok := margins.Ultimate(l.Plant.Num, l.Plant.Den, l.Test())
-	if !ok {
-		return nil
+	ku, tu, ok, from, err := ultimateWithDelay(l)
+	if err != nil || !ok {
+		return nil, err
 	}
-	return &export.Ultimate{Ku: ku, Tu: tu, Kind: stability.Complex.String(), RulesApply: true}
+	return &export.Ultimate{Ku: ku, Tu: tu, Kind: stability.Complex.String(), From: from, RulesApply: true}, nil
 }
 
 // ruleFamily returns the controller structure a tuning rule sets: the

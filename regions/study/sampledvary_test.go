@@ -172,8 +172,8 @@ func TestProbeSampledOgata(t *testing.T) {
 		t.Fatalf("gain margin %.10g at ω %.10g, want %.10g at %.10g", float64(d.GainMargin), float64(d.PhaseCrossover), k, omega)
 	case d.RootRadius == nil || math.Abs(*d.RootRadius-math.Sqrt(1-a)) > 1e-14:
 		t.Fatalf("largest |z| %v, want √(1 − 1/e) = %g", d.RootRadius, math.Sqrt(1-a))
-	case math.Abs(d.DecayRate+math.Log(1-a)/2) > 1e-14:
-		t.Fatalf("decay rate %g, want −ln(1 − 1/e)/2 = %g", d.DecayRate, -math.Log(1-a)/2)
+	case math.Abs(float64(d.DecayRate)+math.Log(1-a)/2) > 1e-14:
+		t.Fatalf("decay rate %g, want −ln(1 − 1/e)/2 = %g", float64(d.DecayRate), -math.Log(1-a)/2)
 	case d.Ultimate == nil || math.Abs(d.Ultimate.Ku-k) > 1e-10*k || d.Ultimate.Kind != "complex" || d.Ultimate.Method == "":
 		t.Fatalf("ultimate %+v, want Ku = %g from a pair", d.Ultimate, k)
 	case math.Abs(float64(d.MsFreq)) > math.Pi || d.SampleTime != 1:

@@ -34,7 +34,7 @@ func probeMs(t *testing.T, sc scenario.Scenario, p export.Point) float64 {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return rep.Doc.Ms
+	return float64(rep.Doc.Ms)
 }
 
 // TestBestKiMeetsItsBound: the largest-ki point must satisfy Ms ≤ bound

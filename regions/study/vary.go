@@ -18,6 +18,9 @@ type VaryRequest struct {
 	Loop  LoopSpec
 	Range spec.Axis
 	Text  string
+	// Pade is the order of the Padé approximant a loop with dead time is
+	// compared with; 0 chooses it (padeVary).
+	Pade int
 }
 
 // VaryReport is the answer to a VaryRequest.
@@ -69,15 +72,26 @@ func Vary(req VaryRequest) (*VaryReport, error) {
 	if rep.Sampled != nil {
 		rep.Doc.SampleTime, rep.Doc.Integral = rep.Sampled.T, rep.Sampled.Integral
 	}
+	dead := l.Plant.Delay > 0
 	for _, iv := range ivs {
-		rep.Doc.Intervals = append(rep.Doc.Intervals, export.Interval{
-			Lo: iv.Lo, Hi: iv.Hi, LoKind: endKind(iv.LoKind), HiKind: endKind(iv.HiKind),
-			LoOmega: export.Number(iv.LoOmega), HiOmega: export.Number(iv.HiOmega),
-		})
+		rep.Doc.Intervals = append(rep.Doc.Intervals, exportInterval(iv))
 		// Adding zero turns a negative zero from the search into +0.
-		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega, units, T), HiEnd: endText(iv.HiKind, iv.HiOmega, units, T)})
+		rep.Intervals = append(rep.Intervals, Interval{Lo: iv.Lo + 0, Hi: iv.Hi + 0, LoEnd: endText(iv.LoKind, iv.LoOmega, units, T, dead), HiEnd: endText(iv.HiKind, iv.HiOmega, units, T, dead)})
+	}
+	if dead {
+		if rep.Doc.Pade, err = padeVary(l, idx, ax.Min, ax.Max, ivs, req.Pade); err != nil {
+			return nil, err
+		}
 	}
 	return rep, nil
+}
+
+// exportInterval writes an interval for JSON.
+func exportInterval(iv intervals.Interval) export.Interval {
+	return export.Interval{
+		Lo: iv.Lo, Hi: iv.Hi, LoKind: endKind(iv.LoKind), HiKind: endKind(iv.HiKind),
+		LoOmega: export.Number(iv.LoOmega), HiOmega: export.Number(iv.HiOmega),
+	}
 }
 
 // endKind names an interval end for JSON: a boundary kind ("alternating"
@@ -90,10 +104,15 @@ func endKind(k stability.Kind) string {
 }
 
 // endText says in words how the loop loses stability at an interval end;
-// T is the sample time of a sampled loop, 0 for a continuous one.
-func endText(k stability.Kind, omega float64, u Units, T float64) string {
+// T is the sample time of a sampled loop, 0 for a continuous one; dead
+// says the loop has dead time, where a crossing through infinity is a
+// whole chain of roots (the neutral type).
+func endText(k stability.Kind, omega float64, u Units, T float64, dead bool) string {
 	if T > 0 {
 		return circleEndText(k, omega, u, T)
+	}
+	if k == stability.Infinite && dead {
+		return "a chain of infinitely many roots reaches the imaginary axis: |lim L(s)| as s → ∞ reaches 1 (neutral type; for an ideal derivative, |kd·lim s·G(s)| = 1)"
 	}
 	switch k {
 	case stability.Real:
