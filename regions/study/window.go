@@ -1,0 +1,354 @@
+package study
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"gainscape/regions/grid"
+	"gainscape/regions/loop"
+	"gainscape/regions/plane"
+	"gainscape/regions/spec"
+)
+
+// The window rule. A window is chosen on a coarse grid of windowNodes ×
+// windowNodes: it starts at [0, 2·scale] on each axis to be chosen (the
+// scales of parameterScale), and every side on which a stable node lies
+// is pushed out by the window's span, at most windowGrowths times; then
+// the window is shrunk to the stable nodes, one coarse cell beyond them
+// and windowPad of their span more, rounded outward to a tick step. A
+// side that still has stable nodes after the last push is taken as
+// unbounded and cut at windowMultiple times the axis scale beyond the
+// opposite side (or beyond 0); the other axis is then chosen again
+// within the cut, so that, for instance, ki reaches just past the
+// largest ki on the edge within the kp range kept.
+const (
+	windowNodes    = 121
+	windowGrowths  = 10
+	windowPad      = 0.05
+	windowMultiple = 3.0
+)
+
+// Window is a window chosen for a map and the rule that chose it.
+type Window struct {
+	// X and Y are the axes with their ranges.
+	X, Y spec.Axis
+	// Auto says which axes were chosen (the others were given).
+	AutoX, AutoY bool
+	// Rule says in words how the window was chosen, for reports.
+	Rule string
+	// Cut lists the sides at which the stable region reaches past the
+	// last push and the window was cut by the rule, as "kp above".
+	Cut []string
+	// Scales are the axis scales the rule started from, with where they
+	// came from.
+	XScale, YScale Scale
+}
+
+// Scale is the size of a parameter's values for the window rule.
+type Scale struct {
+	Value float64
+	// From says where it came from, e.g. "Ku = 4".
+	From string
+}
+
+// Text writes the window as the flags take it, "kp=-0.2:4.1 ki=…".
+func (w Window) Text() string {
+	return fmt.Sprintf("%s %s", axisRange(w.X), axisRange(w.Y))
+}
+
+func axisRange(a spec.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }
+
+// ChooseWindow chooses the ranges of the axes of the plane (x, y) of the
+// loop l that autoX and autoY mark, keeping the others as given: large
+// enough to hold every stable node the rule's coarse grid finds, as the
+// package's window rule describes. The grid sees what its nodes see: a
+// stable sliver narrower than a coarse cell, or a piece of the region
+// not joined to what the growing window reaches, may be missed. It
+// returns an *InputError if the axes are not parameters of l or no
+// stable node is found however far the window grows.
+func ChooseWindow(ctx context.Context, l loop.Loop, x, y spec.Axis, autoX, autoY bool, opt Options) (Window, error) {
+	ch, err := newChooser(ctx, l, x, y, opt)
+	if err != nil {
+		return Window{}, err
+	}
+	w := Window{X: x, Y: y, AutoX: autoX, AutoY: autoY, XScale: ch.scale[0], YScale: ch.scale[1]}
+	if !autoX && !autoY {
+		w.Rule = "window as given"
+		return w, nil
+	}
+	free := [4]bool{autoX, autoX, autoY, autoY}
+	b := box{x.Min, x.Max, y.Min, y.Max}
+	for k, auto := range []bool{autoX, autoX, autoY, autoY} {
+		if auto {
+			b[k] = ch.start(k)
+		}
+	}
+	b, unb, ext, err := ch.grow(b, free)
+	if err != nil {
+		return Window{}, err
+	}
+	cut := [4]bool{}
+	// An unbounded x is cut first, with y back at its start so that the
+	// cells are fine enough to show where x ends on the other side, and
+	// y is then chosen again within the cut.
+	if unb[0] || unb[1] {
+		if autoY {
+			b[2], b[3] = ch.start(2), ch.start(3)
+		}
+		if b, err = ch.cutSides(b, unb, ext, 0, &cut); err != nil {
+			return Window{}, err
+		}
+		if autoY {
+			if b, unb, ext, err = ch.grow(b, [4]bool{false, false, true, true}); err != nil {
+				return Window{}, err
+			}
+		}
+	}
+	if unb[2] || unb[3] {
+		if b, err = ch.cutSides(b, unb, ext, 2, &cut); err != nil {
+			return Window{}, err
+		}
+	}
+	if b, err = ch.shrink(b, free, cut); err != nil {
+		return Window{}, err
+	}
+	w.X.Min, w.X.Max, w.Y.Min, w.Y.Max = b[0], b[1], b[2], b[3]
+	w.Rule, w.Cut = ch.rule(w, cut)
+	return w, nil
+}
+
+// box is a window: x min, x max, y min, y max.
+type box [4]float64
+
+// chooser runs the window rule for one loop and plane.
+type chooser struct {
+	ctx   context.Context
+	l     loop.Loop
+	names [2]string
+	scale [2]Scale
+	opt   Options
+}
+
+func newChooser(ctx context.Context, l loop.Loop, x, y spec.Axis, opt Options) (*chooser, error) {
+	probe := plane.Axis{Param: x.Param, Min: 0, Max: 1, N: 2}
+	if _, err := plane.NewSetup(l, probe, plane.Axis{Param: y.Param, Min: 0, Max: 1, N: 2}); err != nil {
+		return nil, inputErr("--x", "axes.x", x.Param+" --y "+y.Param, "%v", err)
+	}
+	sc := loopScales(l)
+	return &chooser{ctx: ctx, l: l, names: [2]string{x.Param, y.Param},
+		scale: [2]Scale{parameterScale(l, x.Param, sc), parameterScale(l, y.Param, sc)}, opt: opt}, nil
+}
+
+// start returns the starting value of side k: 0 for a minimum, twice the
+// axis scale for a maximum.
+func (ch *chooser) start(k int) float64 {
+	if k%2 == 0 {
+		return 0
+	}
+	return 2 * ch.scale[k/2].Value
+}
+
+// coarse maps the box on the rule's grid.
+func (ch *chooser) coarse(b box) (*grid.Map, error) {
+	s, err := plane.NewSetup(ch.l, plane.Axis{Param: ch.names[0], Min: b[0], Max: b[1], N: windowNodes},
+		plane.Axis{Param: ch.names[1], Min: b[2], Max: b[3], N: windowNodes})
+	if err != nil {
+		return nil, err
+	}
+	return grid.Evaluate(ch.ctx, s, grid.Options{Workers: ch.opt.Workers})
+}
+
+// stableSpan returns the first and last column and row holding a stable
+// node, and false if none does.
+func stableSpan(m *grid.Map) (span [4]int, ok bool) {
+	span = [4]int{m.XAxis.N, -1, m.YAxis.N, -1}
+	for j := 0; j < m.YAxis.N; j++ {
+		for i := 0; i < m.XAxis.N; i++ {
+			if m.StableAt(j*m.XAxis.N + i) {
+				span = [4]int{min(span[0], i), max(span[1], i), min(span[2], j), max(span[3], j)}
+			}
+		}
+	}
+	return span, span[1] >= 0
+}
+
+// touching reports on which sides of m a stable node lies.
+func touching(m *grid.Map) (t [4]bool, any bool) {
+	span, ok := stableSpan(m)
+	if !ok {
+		return t, false
+	}
+	return [4]bool{span[0] == 0, span[1] == m.XAxis.N-1, span[2] == 0, span[3] == m.YAxis.N-1}, true
+}
+
+// grow pushes out the free sides of b that stable nodes touch, each at
+// most windowGrowths times, and reports the sides still touched at the
+// end, where the region is unbounded as far as the rule looks, and the
+// extent of the stable nodes of the last map.
+func (ch *chooser) grow(b box, free [4]bool) (box, [4]bool, box, error) {
+	var pushes [4]int
+	for {
+		m, err := ch.coarse(b)
+		if err != nil {
+			return b, [4]bool{}, box{}, err
+		}
+		t, any := touching(m)
+		if !any {
+			// No stable node yet: look farther on every free side.
+			t = free
+		}
+		var unb [4]bool
+		moved := false
+		next := b
+		for k := range 4 {
+			if !free[k] || !t[k] {
+				continue
+			}
+			if pushes[k] == windowGrowths {
+				unb[k] = true
+				continue
+			}
+			pushes[k]++
+			span := b[k|1] - b[k&^1]
+			if k%2 == 0 {
+				next[k] -= span
+			} else {
+				next[k] += span
+			}
+			moved = true
+		}
+		if !moved {
+			if !any {
+				return b, unb, box{}, inputErr("--x", "axes.x", ch.names[0]+" --y "+ch.names[1],
+					"no stable point found in %s %g…%g × %s %g…%g, the farthest the window rule looks; give the window with --x NAME=MIN:MAX --y NAME=MIN:MAX",
+					ch.names[0], b[0], b[1], ch.names[1], b[2], b[3])
+			}
+			span, _ := stableSpan(m)
+			return b, unb, box{m.XAxis.At(span[0]), m.XAxis.At(span[1]), m.YAxis.At(span[2]), m.YAxis.At(span[3])}, nil
+		}
+		b = next
+	}
+}
+
+// cutSides cuts the unbounded sides of axis a (0 for x, 2 for y) at
+// windowMultiple times its scale beyond the opposite end of the stable
+// nodes, or beyond 0 when that end lies on the far side of 0. The end is
+// first read from ext, the stable nodes of the grown window, whose cells
+// may be wide, and then again from the map of the cut window, until it
+// settles.
+func (ch *chooser) cutSides(b box, unb [4]bool, ext box, a int, cut *[4]bool) (box, error) {
+	reach := windowMultiple * ch.scale[a/2].Value
+	lo, hi := unb[a], unb[a+1]
+	cut[a], cut[a+1] = lo, hi
+	if lo && hi {
+		b[a], b[a+1] = -reach, reach
+		return b, nil
+	}
+	for range 6 {
+		prev := b
+		if hi {
+			b[a+1] = math.Max(ext[a], 0) + reach
+		} else {
+			b[a] = math.Min(ext[a+1], 0) - reach
+		}
+		if b == prev {
+			break
+		}
+		m, err := ch.coarse(b)
+		if err != nil {
+			return b, err
+		}
+		span, ok := stableSpan(m)
+		if !ok {
+			break
+		}
+		ext = box{m.XAxis.At(span[0]), m.XAxis.At(span[1]), m.YAxis.At(span[2]), m.YAxis.At(span[3])}
+	}
+	return b, nil
+}
+
+// shrink returns b shrunk on its free, uncut sides to the stable nodes
+// of its coarse map, one cell beyond them and windowPad of their span
+// more, rounded outward to a tick step of the result.
+func (ch *chooser) shrink(b box, free, cut [4]bool) (box, error) {
+	m, err := ch.coarse(b)
+	if err != nil {
+		return b, err
+	}
+	span, ok := stableSpan(m)
+	if !ok {
+		return b, nil
+	}
+	axes := [2]plane.Axis{m.XAxis, m.YAxis}
+	out := b
+	for a := range 2 {
+		ax := axes[a]
+		lo := ax.At(max(span[2*a]-1, 0))
+		hi := ax.At(min(span[2*a+1]+1, ax.N-1))
+		pad := windowPad * (hi - lo)
+		lo, hi = lo-pad, hi+pad
+		if cut[2*a] || !free[2*a] {
+			lo = b[2*a]
+		}
+		if cut[2*a+1] || !free[2*a+1] {
+			hi = b[2*a+1]
+		}
+		step := niceStep((hi - lo) / 20)
+		if free[2*a] && !cut[2*a] {
+			lo = math.Floor(lo/step) * step
+		}
+		if free[2*a+1] && !cut[2*a+1] {
+			hi = math.Ceil(hi/step) * step
+		}
+		out[2*a], out[2*a+1] = tidy(lo), tidy(hi)
+	}
+	return out, nil
+}
+
+// tidy rounds v to 12 significant digits, so that a multiple of a tick
+// step reads as one (−0.6, not −0.6000000000000001); adding zero turns
+// −0 into 0.
+func tidy(v float64) float64 {
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'g', 12, 64), 64)
+	return r + 0
+}
+
+// niceStep returns the smallest of 1, 2, 2.5 and 5 times a power of ten
+// that is at least v > 0.
+func niceStep(v float64) float64 {
+	p := math.Pow(10, math.Floor(math.Log10(v)))
+	for _, m := range []float64{1, 2, 2.5, 5, 10} {
+		if m*p >= v*(1-1e-12) {
+			return m * p
+		}
+	}
+	return 10 * p
+}
+
+// rule describes the window chosen, in words.
+func (ch *chooser) rule(w Window, cut [4]bool) (string, []string) {
+	var parts, sides []string
+	for a, auto := range []bool{w.AutoX, w.AutoY} {
+		if !auto {
+			continue
+		}
+		name, sc := ch.names[a], ch.scale[a]
+		var cuts []string
+		for k, where := range []string{"below", "above"} {
+			if cut[2*a+k] {
+				cuts = append(cuts, where)
+				sides = append(sides, name+" "+where)
+			}
+		}
+		if len(cuts) == 0 {
+			parts = append(parts, fmt.Sprintf("%s holds every stable node of the growing window (started at 0…%.3g, twice its scale %s)", name, 2*sc.Value, sc.From))
+			continue
+		}
+		parts = append(parts, fmt.Sprintf("%s: the stable region reaches %s past %d pushes of the window; cut at %g × its scale %s beyond the other side",
+			name, strings.Join(cuts, " and "), windowGrowths, windowMultiple, sc.From))
+	}
+	return strings.Join(parts, "; "), sides
+}
