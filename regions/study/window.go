@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"gainscape/regions/grid"
+	"gainscape/regions/intervals"
 	"gainscape/regions/loop"
 	"gainscape/regions/plane"
 	"gainscape/regions/spec"
@@ -128,17 +129,19 @@ type chooser struct {
 	ctx   context.Context
 	l     loop.Loop
 	names [2]string
+	idx   [2]int
 	scale [2]Scale
 	opt   Options
 }
 
 func newChooser(ctx context.Context, l loop.Loop, x, y spec.Axis, opt Options) (*chooser, error) {
 	probe := plane.Axis{Param: x.Param, Min: 0, Max: 1, N: 2}
-	if _, err := plane.NewSetup(l, probe, plane.Axis{Param: y.Param, Min: 0, Max: 1, N: 2}); err != nil {
+	s, err := plane.NewSetup(l, probe, plane.Axis{Param: y.Param, Min: 0, Max: 1, N: 2})
+	if err != nil {
 		return nil, inputErr("--x", "axes.x", x.Param+" --y "+y.Param, "%v", err)
 	}
 	sc := loopScales(l)
-	return &chooser{ctx: ctx, l: l, names: [2]string{x.Param, y.Param},
+	return &chooser{ctx: ctx, l: l, names: [2]string{x.Param, y.Param}, idx: [2]int{s.XIndex, s.YIndex},
 		scale: [2]Scale{parameterScale(l, x.Param, sc), parameterScale(l, y.Param, sc)}, opt: opt}, nil
 }
 
@@ -175,13 +178,47 @@ func stableSpan(m *grid.Map) (span [4]int, ok bool) {
 	return span, span[1] >= 0
 }
 
-// touching reports on which sides of m a stable node lies.
-func touching(m *grid.Map) (t [4]bool, any bool) {
-	span, ok := stableSpan(m)
-	if !ok {
-		return t, false
+// sidesStable reports which of the sides of b that want marks hold a
+// stable point: exactly, by the stable intervals of the parameter along
+// the side (intervals.Stable), for a continuous loop without dead time,
+// and at sideNodes points along it otherwise. A thin stable tail that
+// crosses a side is so seen however narrow it is where the coarse grid
+// would lose it between nodes.
+func (ch *chooser) sidesStable(b box, want [4]bool) [4]bool {
+	var t [4]bool
+	for k := range 4 {
+		if want[k] {
+			t[k] = ch.sideStable(b, k)
+		}
 	}
-	return [4]bool{span[0] == 0, span[1] == m.XAxis.N-1, span[2] == 0, span[3] == m.YAxis.N-1}, true
+	return t
+}
+
+// sideNodes is the number of points at which a side is tested where no
+// exact method serves.
+const sideNodes = 2001
+
+// sideStable reports whether side k of b holds a stable point.
+func (ch *chooser) sideStable(b box, k int) bool {
+	a := k / 2     // the axis the side cuts
+	along := 1 - a // the axis it runs along
+	fixed := ch.idx[a]
+	l := ch.l.Set(fixed, b[k])
+	lo, hi := b[2*along], b[2*along+1]
+	if l.Plant.Delay == 0 && l.Plant.Sample == 0 {
+		if ivs, err := intervals.Stable(l, ch.idx[along], lo, hi); err == nil {
+			return len(ivs) > 0
+		}
+	}
+	num, den := l.Open()
+	counter := l.Test().NewCounter(max(len(num), len(den)))
+	for i := range sideNodes {
+		v := lo + float64(i)*(hi-lo)/(sideNodes-1)
+		if counter.Count(l.Set(ch.idx[along], v).Function()).Stable() {
+			return true
+		}
+	}
+	return false
 }
 
 // grow pushes out the free sides of b that stable nodes touch, each at
@@ -195,8 +232,9 @@ func (ch *chooser) grow(b box, free [4]bool) (box, [4]bool, box, error) {
 		if err != nil {
 			return b, [4]bool{}, box{}, err
 		}
-		t, any := touching(m)
-		if !any {
+		_, any := stableSpan(m)
+		t := ch.sidesStable(b, free)
+		if !any && t == ([4]bool{}) {
 			// No stable node yet: look farther on every free side.
 			t = free
 		}
@@ -305,6 +343,17 @@ func (ch *chooser) shrink(b box, free, cut [4]bool) (box, error) {
 		}
 		out[2*a], out[2*a+1] = tidy(lo), tidy(hi)
 	}
+	// The coarse nodes may miss a thin part of the region near a side:
+	// such a side is moved back out, in steps of a tenth of the way to
+	// where the window had grown, whose sides hold no stable point.
+	for k := range 4 {
+		if !free[k] || cut[k] {
+			continue
+		}
+		for step := 1; step <= 10 && ch.sideStable(out, k); step++ {
+			out[k] = tidy(out[k] + (b[k]-out[k])*float64(step)/10)
+		}
+	}
 	return out, nil
 }
 
@@ -347,8 +396,12 @@ func (ch *chooser) rule(w Window, cut [4]bool) (string, []string) {
 			parts = append(parts, fmt.Sprintf("%s holds every stable node of the growing window (started at 0…%.3g, twice its scale %s)", name, 2*sc.Value, sc.From))
 			continue
 		}
-		parts = append(parts, fmt.Sprintf("%s: the stable region reaches %s past %d pushes of the window; cut at %g × its scale %s beyond the other side",
-			name, strings.Join(cuts, " and "), windowGrowths, windowMultiple, sc.From))
+		where := fmt.Sprintf("cut at %g × its scale %s beyond the region's other end", windowMultiple, sc.From)
+		if len(cuts) == 2 {
+			where = fmt.Sprintf("cut at ±%g × its scale %s", windowMultiple, sc.From)
+		}
+		parts = append(parts, fmt.Sprintf("%s: the stable region reaches %s past %d pushes of the window (unbounded that way); %s",
+			name, strings.Join(cuts, " and "), windowGrowths, where))
 	}
 	return strings.Join(parts, "; "), sides
 }
