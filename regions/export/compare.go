@@ -35,9 +35,9 @@ type ComparePanel struct {
 	PlantLabel string `json:"plant_label,omitempty"`
 	// Sample is the sample time of a digital controller, 0 for a
 	// continuous one.
-	Sample    float64            `json:"sample"`
-	Window    WindowChoice       `json:"window"`
-	Table     CompareTable       `json:"table"`
+	Sample    float64           `json:"sample"`
+	Window    WindowChoice      `json:"window"`
+	Table     CompareTable      `json:"table"`
 	Responses *response.Figures `json:"responses"`
 	// ResponseFailed says why there are no responses.
 	ResponseFailed string `json:"response_failed,omitempty"`
