@@ -121,11 +121,11 @@ func DecodeCompare(r io.Reader, name string) (Compare, error) {
 		return Compare{}, &Error{File: name, Line: line, Msg: fmt.Sprintf("nested deeper than %d levels of arrays, tables and dotted keys", MaxNesting)}
 	}
 	var top struct {
-		Schema   toml.Primitive   `toml:"schema"`
-		Loop     toml.Primitive   `toml:"loop"`
-		Compare  toml.Primitive   `toml:"compare"`
-		Panels   []toml.Primitive `toml:"panels"`
-		Output   toml.Primitive   `toml:"output"`
+		Schema  toml.Primitive   `toml:"schema"`
+		Loop    toml.Primitive   `toml:"loop"`
+		Compare toml.Primitive   `toml:"compare"`
+		Panels  []toml.Primitive `toml:"panels"`
+		Output  toml.Primitive   `toml:"output"`
 	}
 	md, err := toml.NewDecoder(bytes.NewReader(data)).Decode(&top)
 	if err != nil {
