@@ -4,6 +4,9 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
+
+	"gonum.org/v1/plot"
 
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -30,6 +33,8 @@ type Panels struct {
 	Width, Height vg.Length
 	// DPI is the resolution of PNG output; zero means DefaultDPI.
 	DPI int
+	// MarkLegend, if set, replaces the legend's text for the marks.
+	MarkLegend string
 }
 
 // MaxPanels is the most panels a Panels figure holds.
@@ -94,6 +99,13 @@ func WritePanels(w io.Writer, format string, p Panels) error {
 	scale := sharedScale(p.Maps)
 	rc := countColours(scale != nil)
 	sections := mergeSections(p.Maps, rc, scale)
+	for i := range sections {
+		if sections[i].heading == marksHeading && p.MarkLegend != "" {
+			for k := range sections[i].entries {
+				sections[i].entries[k].text = p.MarkLegend
+			}
+		}
+	}
 	if p.Height == 0 {
 		p.Height = p.naturalHeight(sections, scale)
 	}
@@ -135,13 +147,17 @@ func scaleName(maps []Figure) string {
 }
 
 // mergeSections returns the legend sections of all panels, each entry
-// once, in the order the panels first show it.
+// once, in the order the panels first show it; an iso-line set lists the
+// levels drawn in any panel.
 func mergeSections(maps []Figure, rc regionColours, scale *shadeScale) []legendSection {
 	var out []legendSection
 	index := map[string]int{}
 	seen := map[string]bool{}
 	for i := range maps {
 		for _, sec := range legendSections(&maps[i], rc, scale) {
+			if sec.heading == isoHeading {
+				sec = mergedIso(maps)
+			}
 			k, ok := index[sec.heading]
 			if !ok {
 				k = len(out)
@@ -157,6 +173,39 @@ func mergeSections(maps []Figure, rc regionColours, scale *shadeScale) []legendS
 		}
 	}
 	return out
+}
+
+// mergedIso returns the iso-line section for all panels: one entry per
+// set (by look and name) with the levels any panel draws.
+func mergedIso(maps []Figure) legendSection {
+	type key struct {
+		look int
+		name string
+	}
+	var order []key
+	levels := map[key][]float64{}
+	for _, f := range maps {
+		for _, cs := range f.Contours {
+			k := key{cs.Look, cs.Name}
+			if _, ok := levels[k]; !ok {
+				order = append(order, k)
+				levels[k] = nil
+			}
+			for _, v := range drawnLevels(cs).Levels {
+				if !slices.Contains(levels[k], v) {
+					levels[k] = append(levels[k], v)
+				}
+			}
+		}
+	}
+	sec := legendSection{heading: isoHeading}
+	for _, k := range order {
+		if lv := levels[k]; len(lv) > 0 {
+			slices.Sort(lv)
+			sec.entries = append(sec.entries, legendEntry{contourText(ContourSet{Name: k.name, Levels: lv}), []plot.Thumbnailer{lineThumb{contourStyle(k.look)}}})
+		}
+	}
+	return sec
 }
 
 // legendRows lays the sections out left to right in rows no wider than

@@ -128,8 +128,21 @@ func (r *Responses) draw(c draw.Canvas) {
 	}
 	top := draw.Crop(plots, 0, 0, h+panelSpacing, 0)
 	bottom := draw.Crop(plots, 0, 0, 0, -(h + panelSpacing))
-	r.plot("setpoint step: output y", "", tmax, func(s Series) []float64 { return s.Setpoint }, 1).Draw(top)
-	r.plot("load step at the plant input: output y", "time t ("+unit+")", tmax, func(s Series) []float64 { return s.Load }, 0).Draw(bottom)
+	for _, part := range []struct {
+		c            draw.Canvas
+		title, label string
+		values       func(Series) []float64
+		level        float64
+	}{
+		{top, "Unit setpoint step", "", func(s Series) []float64 { return s.Setpoint }, 1},
+		{bottom, "Unit load step at the plant input", "time t (" + unit + ")", func(s Series) []float64 { return s.Load }, 0},
+	} {
+		ts := textStyle(panelTitleSize, true, inkColour)
+		ts.YAlign = draw.YTop
+		part.c.FillText(ts, vg.Point{X: part.c.Min.X, Y: part.c.Max.Y}, part.title)
+		area := draw.Crop(part.c, 0, 0, 0, -(ts.Height(part.title) + panelTitleGap))
+		r.plot(part.label, tmax, part.values, part.level).Draw(area)
+	}
 	y := body.Min.Y + legendH
 	for _, row := range rows {
 		x := body.Min.X
@@ -164,15 +177,12 @@ func splitSection(sec legendSection, width vg.Length) []legendSection {
 	return out
 }
 
-// plot builds one of the two plots: the values each series gives,
+// plot builds one of the two plots: the output each series gives,
 // against time, with a thin reference line at level.
-func (r *Responses) plot(title, xlabel string, tmax float64, values func(Series) []float64, level float64) *plot.Plot {
+func (r *Responses) plot(xlabel string, tmax float64, values func(Series) []float64, level float64) *plot.Plot {
 	p := plot.New()
 	styleAxis(&p.X, xlabel)
-	styleAxis(&p.Y, "")
-	p.Title.Text = title
-	p.Title.TextStyle = textStyle(axisSize, false, inkColour)
-	p.Title.Padding = 3
+	styleAxis(&p.Y, "output y")
 	p.X.Min, p.X.Max = 0, tmax
 	lo, hi := math.Min(level, 0), math.Max(level, 0)
 	for _, s := range r.Series {

@@ -4,6 +4,8 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
+	"strconv"
 	"strings"
 
 	"gainscape/regions/export"
@@ -86,19 +88,27 @@ type PanelResult struct {
 	// ResponseFailed saying why.
 	Response       *response.Result
 	ResponseFailed string
-	// OverKdRule says how the range of the search over kd was chosen.
+	// OverKdRule says how the range of the search over kd was chosen;
+	// KdChosen is set when the panel is drawn at the kd the search found,
+	// no kd having been given.
 	OverKdRule string
+	KdChosen   bool
+	// OverKdFrom, when positive, is the panel (counted from 1) whose
+	// search over kd this panel shares: the same loop but for kd.
+	OverKdFrom int
+	overKd     *export.OverGain
 	base       loop.Loop
 }
 
 // Compare computes every panel of the request: its window (panels that
 // sweep the same two parameters with ranges to choose share one window,
 // the smallest holding each one's chosen window, so that they read
-// alike), its map with the Ms overlay and the best-ki and best-decay
-// searches under the bound, its row of the table, the best-ki design
-// over kd for a structure with kd fixed, and the step responses of each
-// best-ki design over one shared window. Errors about the input are
-// *InputError values.
+// alike), a search for the best-ki design over kd for a structure with
+// kd that is not an axis (the panel is drawn at the kd found when no kd
+// is given), its map with the Ms overlay and the
+// best-ki and best-decay searches under the bound, its row of the table,
+// and the step responses of each best-ki design over one shared window.
+// Errors about the input are *InputError values.
 func Compare(ctx context.Context, req CompareRequest, opt Options) (*Comparison, error) {
 	if len(req.Panels) == 0 {
 		return nil, inputErr("--ctrl", "panel", "", "no panel to draw; give at least one structure")
@@ -115,18 +125,41 @@ func Compare(ctx context.Context, req CompareRequest, opt Options) (*Comparison,
 		cols, rows = DefaultCompareColumns, DefaultCompareRows
 	}
 	specs := make([]PanelSpec, len(req.Panels))
+	// Slices of one structure differ in kd only and share one search.
+	searched := map[string]int{}
 	for k, ps := range req.Panels {
 		l, err := ps.Loop.Build()
 		if err != nil {
 			return nil, panelErr(k, err)
 		}
 		ps = withDefaultAxes(ps, l)
-		w, err := ChooseWindow(ctx, l, ps.X, ps.Y, ps.AutoX, ps.AutoY, opt)
-		if err != nil {
+		pr := &PanelResult{PlantLabel: ps.PlantLabel, Sample: l.Plant.Sample}
+		if overKd(l, ps) {
+			rng, rule := kdRange(l, req.KdRange)
+			pr.OverKdRule = rule
+			key := searchKey(ps)
+			if first, ok := searched[key]; ok {
+				pr.overKd, pr.OverKdFrom = c.Panels[first].overKd, first+1
+			} else if pr.overKd, err = bestOverKd(ctx, ps, rng, c.Bound, opt); err != nil {
+				return nil, panelErr(k, err)
+			} else {
+				searched[key] = k
+			}
+			if !hasValue(ps.Loop.Fixed, "kd") && pr.overKd.Failed == "" {
+				// No kd given: the panel shows the structure at its best.
+				ps.Loop.Fixed = withValue(ps.Loop.Fixed, "kd", pr.overKd.Values["kd"])
+				pr.KdChosen = true
+				if l, err = ps.Loop.Build(); err != nil {
+					return nil, panelErr(k, err)
+				}
+			}
+		}
+		if pr.Window, err = ChooseWindow(ctx, l, ps.X, ps.Y, ps.AutoX, ps.AutoY, opt); err != nil {
 			return nil, panelErr(k, err)
 		}
+		pr.base = l
 		specs[k] = ps
-		c.Panels = append(c.Panels, &PanelResult{Window: w, base: l, PlantLabel: ps.PlantLabel, Sample: l.Plant.Sample})
+		c.Panels = append(c.Panels, pr)
 	}
 	shareWindows(c.Panels, specs)
 	c.Units = Units{specs[0].Loop.TimeUnit}
@@ -233,17 +266,85 @@ func (c *Comparison) runPanel(ctx context.Context, pr *PanelResult, ps PanelSpec
 		return err
 	}
 	pr.Label = panelLabel(pr.Map, ps)
+	if pr.KdChosen {
+		kd := "kd = " + shortNumber(l.Values[kdIndex(l)])
+		r := pr.overKd.Range
+		pr.Label = strings.Replace(pr.Label, kd, fmt.Sprintf("%s (best of %g…%g)", kd, r[0], r[1]), 1)
+	}
+	if pr.KdChosen {
+		if err := takeBetterKi(job, pr, c.Bound); err != nil {
+			return err
+		}
+	}
 	pr.Table = tableOf(pr.Map, l, c.Bound, hasKi == nil)
-	if _, err := family.Index(l.Family, "kd"); err == nil && hasKi == nil && pr.Map.X.Param != "kd" && pr.Map.Y.Param != "kd" {
-		rng, rule := kdRange(l, req.KdRange)
-		pr.OverKdRule = rule
-		og, err := bestOverKd(ctx, ps, rng, c.Bound, opt)
+	pr.Table.OverKd = pr.overKd
+	return nil
+}
+
+// takeBetterKi replaces the best-ki point of a panel drawn at the kd its
+// search over kd found by the search's design, at the same kd, when that
+// has the larger ki: both meet the bound by the refined Ms, and the two
+// grids may resolve the tip of a narrow feasible region differently.
+func takeBetterKi(job *MapJob, pr *PanelResult, bound float64) error {
+	og := pr.overKd
+	for k, b := range pr.Map.Overlays.Best {
+		if b.Label != "best "+BestIntegral || (b.Failed == "" && b.Values["ki"] >= og.Values["ki"]) {
+			continue
+		}
+		s := job.setup
+		x, y := og.Values[s.X.Param], og.Values[s.Y.Param]
+		if x < s.X.Min || x > s.X.Max || y < s.Y.Min || y > s.Y.Max {
+			continue
+		}
+		p, err := pointAt(s, x, y)
 		if err != nil {
 			return err
 		}
-		pr.Table.OverKd = og
+		p.Label, p.Criterion = b.Label, fmt.Sprintf("largest ki with Ms ≤ %g (from the search over kd)", bound)
+		pr.Map.Overlays.Best[k] = p
 	}
 	return nil
+}
+
+// overKd reports whether the panel gets a search for its best design
+// over kd: its structure has ki and kd, and kd is not an axis.
+func overKd(l loop.Loop, ps PanelSpec) bool {
+	_, errKi := family.Index(l.Family, "ki")
+	_, errKd := family.Index(l.Family, "kd")
+	return errKi == nil && errKd == nil && ps.X.Param != "kd" && ps.Y.Param != "kd"
+}
+
+// searchKey identifies the search over kd of a panel: its loop without
+// kd and its plane.
+func searchKey(ps PanelSpec) string {
+	ls := ps.Loop
+	ls.Fixed = nil
+	for _, v := range ps.Loop.Fixed {
+		if v.Param != "kd" {
+			ls.Fixed = append(ls.Fixed, v)
+		}
+	}
+	slices.SortFunc(ls.Fixed, func(a, b spec.Value) int { return strings.Compare(a.Param, b.Param) })
+	return fmt.Sprintf("%#v|%s|%s", ls, ps.X.Param, ps.Y.Param)
+}
+
+// kdIndex returns the index of kd in l's family.
+func kdIndex(l loop.Loop) int {
+	i, err := family.Index(l.Family, "kd")
+	if err != nil {
+		panic(err)
+	}
+	return i
+}
+
+// hasValue reports whether vals gives the named parameter.
+func hasValue(vals []spec.Value, name string) bool {
+	for _, v := range vals {
+		if v.Param == name {
+			return true
+		}
+	}
+	return false
 }
 
 // panelScenario is the map scenario of a panel over window w, the axis
@@ -268,8 +369,8 @@ func panelScenario(ls LoopSpec, w Window, cols, rows int) scenario.Scenario {
 // fixed values and a digital controller's sample time.
 func panelLabel(res *MapResult, ps PanelSpec) string {
 	s := strings.ToUpper(res.Controller)
-	if fixed := ValuesText(res.Fixed); fixed != "" {
-		s += ", " + fixed
+	for _, v := range res.Fixed {
+		s += fmt.Sprintf(", %s = %s", v.Name, shortNumber(v.Value))
 	}
 	if ps.Loop.Sample > 0 {
 		s += fmt.Sprintf(", T = %g %s", ps.Loop.Sample, res.Units.TimeLabel())
@@ -279,6 +380,10 @@ func panelLabel(res *MapResult, ps PanelSpec) string {
 	}
 	return s
 }
+
+// shortNumber writes v to four significant digits, as panel titles
+// show values.
+func shortNumber(v float64) string { return strconv.FormatFloat(v, 'g', 4, 64) }
 
 // responses computes the step responses of every panel's best-ki design
 // over one window, the longest any of them needs, so that they share
