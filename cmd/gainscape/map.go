@@ -57,6 +57,8 @@ type mapFlags struct {
 	best           string
 	msBound        float64
 	demoLabel      string
+	// window is the window chosen for axes given by name alone.
+	window *study.Window
 }
 
 func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
@@ -106,7 +108,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if f.workers < 0 {
 		return userErr("--workers %d: must be 0 (all cores) or more", f.workers)
 	}
-	sc, err := resolveScenario(&f, fs)
+	sc, err := resolveScenario(ctx, &f, fs)
 	if err != nil {
 		return err
 	}
@@ -199,7 +201,7 @@ func noteLink(o scenario.Output) string {
 
 // resolveScenario merges the built-in demo, a scenario file and the flags
 // (flags win) into one validated scenario with its paths resolved.
-func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) {
+func resolveScenario(ctx context.Context, f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) {
 	sc := scenario.Default()
 	given := fs.Changed
 	if f.scenario != "" {
@@ -234,6 +236,13 @@ func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) 
 	}
 	sc.Override(fromFlags, given)
 	defaultAxes(&sc)
+	if autoX, autoY := f.autoAxes(given); autoX || autoY {
+		w := study.Window{}
+		if sc, w, err = study.ChooseMapWindow(ctx, sc, autoX, autoY, study.Options{Workers: f.workers}); err != nil {
+			return sc, err
+		}
+		f.window = &w
+	}
 	if err := sc.ResolvePaths(f.allowOutside); err != nil {
 		return sc, err
 	}

@@ -43,6 +43,12 @@ Flags:
                         --vary kp=0:100
   --json              print one JSON object instead of text
                         --json
+  --response FILE     the closed-loop responses to a unit setpoint step and a
+                      unit load step at the plant input, drawn to FILE (.png,
+                      .svg or .pdf); their figures (overshoot, settling time,
+                      IAE and IE of the load step, …) join the text and the
+                      JSON (field response)
+                        --response steps.png
 
 Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
@@ -52,9 +58,10 @@ Examples:
 
 type probeFlags struct {
 	loopFlags
-	x, y string
-	vary string
-	json bool
+	x, y     string
+	vary     string
+	json     bool
+	response string
 }
 
 func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
@@ -73,6 +80,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.y, "y", "", "second parameter of the fragility plane")
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
 	fs.BoolVar(&f.json, "json", false, "print JSON")
+	fs.StringVar(&f.response, "response", "", "figure of the step responses of the design point")
 	if err := parseFlags(fs, args, probeHelp, stdout); err != nil {
 		return err
 	}
@@ -82,6 +90,9 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	}
 	if f.vary != "" {
 		return runVary(ls, f, stdout)
+	}
+	if f.response != "" {
+		return probeWithResponse(ctx, ls, f, stdout)
 	}
 	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y})
 	if err != nil {
@@ -195,6 +206,9 @@ func printProbe(w io.Writer, rep *study.ProbeReport) {
 		fmt.Fprintln(w, "  sources: Ziegler & Nichols, Trans. ASME 64 (1942); Tyreus & Luyben, Ind. Eng. Chem. Res. 31 (1992)")
 	} else {
 		fmt.Fprintln(w, "\nProportional-only loop: no finite ultimate gain with a sustained oscillation")
+	}
+	if rep.Response != nil {
+		printStepFigures(w, rep)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)

@@ -1,6 +1,9 @@
 package export
 
-import "gainscape/regions/stability"
+import (
+	"gainscape/regions/response"
+	"gainscape/regions/stability"
+)
 
 // Probe is the probe --json document for one design point. Its field
 // names are a stable contract.
@@ -38,7 +41,12 @@ type Probe struct {
 	Robustness string     `json:"robustness"`
 	Fragility  *Fragility `json:"fragility,omitempty"`
 	Ultimate   *Ultimate  `json:"ultimate,omitempty"`
-	Caution    string     `json:"caution"`
+	// Response holds the figures of the step responses (iae_load,
+	// overshoot, settling_time, …) when they were asked for;
+	// ResponseFailed says why there are none.
+	Response       *response.Figures `json:"response,omitempty"`
+	ResponseFailed string            `json:"response_failed,omitempty"`
+	Caution        string            `json:"caution"`
 }
 
 // GainMargin is the margin of one phase crossover (arg L = −180°): the

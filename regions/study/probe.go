@@ -9,6 +9,7 @@ import (
 	"gainscape/regions/family"
 	"gainscape/regions/loop"
 	"gainscape/regions/margins"
+	"gainscape/regions/response"
 	"gainscape/regions/stability"
 )
 
@@ -19,6 +20,8 @@ import (
 type ProbeRequest struct {
 	Loop LoopSpec
 	X, Y string
+	// Response asks for the step responses of the design point.
+	Response bool
 }
 
 // ProbeReport is everything probe says about one design point.
@@ -31,6 +34,9 @@ type ProbeReport struct {
 	Values  []Value
 	// Units labels frequencies, decay rates and periods.
 	Units Units
+	// Response holds the step responses when asked for and the loop is
+	// stable (Doc.ResponseFailed says why not otherwise).
+	Response *response.Result
 }
 
 // Probe computes the report for one design point: the stability test's
@@ -107,7 +113,11 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 	if doc.Ultimate, err = ultimate(l); err != nil {
 		return nil, err
 	}
-	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}, nil
+	pr := &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units}
+	if req.Response {
+		probeResponse(pr, l)
+	}
+	return pr, nil
 }
 
 // ultimate returns the ultimate gain and period of the proportional-only

@@ -3,6 +3,7 @@ package study
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"gainscape/regions/loop"
 	"gainscape/regions/response"
@@ -19,7 +20,7 @@ import (
 func StepResponse(l loop.Loop, duration float64) (*response.Result, error) {
 	r, err := response.Step(responseLoop(l), response.Options{Duration: duration})
 	if errors.Is(err, response.ErrUnstable) || errors.Is(err, response.ErrUndecided) {
-		return nil, inputErr("--set", "fixed", "", "no step response: %v", err)
+		return nil, inputErr("--set", "fixed", "", "no step response: %s", strings.TrimPrefix(err.Error(), "response: "))
 	}
 	if err != nil {
 		return nil, fmt.Errorf("step response: %w", err)
@@ -42,4 +43,22 @@ func responseLoop(l loop.Loop) response.Loop {
 	cn, cd := l.Controller()
 	return response.Loop{PlantNum: l.Plant.Num, PlantDen: l.Plant.Den, CtrlNum: cn, CtrlDen: cd,
 		Delay: l.Plant.Delay, Period: l.Plant.Sample}
+}
+
+// probeResponse adds the step responses of the probed design point to
+// the report, with their figures in its document, or the reason there
+// are none.
+func probeResponse(rep *ProbeReport, l loop.Loop) {
+	r, err := StepResponse(l, 0)
+	if ie, ok := err.(*InputError); ok {
+		rep.Doc.ResponseFailed = ie.Err.Error()
+		return
+	}
+	if err != nil {
+		rep.Doc.ResponseFailed = err.Error()
+		return
+	}
+	rep.Response = r
+	f := r.Figures
+	rep.Doc.Response = &f
 }

@@ -11,6 +11,7 @@ import (
 	"gainscape/regions/intervals"
 	"gainscape/regions/loop"
 	"gainscape/regions/plane"
+	"gainscape/regions/scenario"
 	"gainscape/regions/spec"
 )
 
@@ -119,6 +120,22 @@ func ChooseWindow(ctx context.Context, l loop.Loop, x, y spec.Axis, autoX, autoY
 	w.X.Min, w.X.Max, w.Y.Min, w.Y.Max = b[0], b[1], b[2], b[3]
 	w.Rule, w.Cut = ch.rule(w, cut)
 	return w, nil
+}
+
+// ChooseMapWindow returns sc with the ranges of the axes that autoX and
+// autoY mark chosen by ChooseWindow for its loop, and the window chosen.
+// Errors are *InputError values.
+func ChooseMapWindow(ctx context.Context, sc scenario.Scenario, autoX, autoY bool, opt Options) (scenario.Scenario, Window, error) {
+	l, err := mapLoopSpec(sc).Build()
+	if err != nil {
+		return sc, Window{}, err
+	}
+	w, err := ChooseWindow(ctx, l, sc.Axes.X, sc.Axes.Y, autoX, autoY, opt)
+	if err != nil {
+		return sc, w, err
+	}
+	sc.Axes.X, sc.Axes.Y = w.X, w.Y
+	return sc, w, nil
 }
 
 // box is a window: x min, x max, y min, y max.
