@@ -56,7 +56,7 @@ func newCanvas(format string, width, height vg.Length, dpi int) (vg.CanvasWriter
 	case "pdf":
 		pc := vgpdf.New(width, height)
 		pc.EmbedFonts(true)
-		return pc, svgFillDPI, nil
+		return pdfCanvas{pc}, svgFillDPI, nil
 	}
 	return nil, 0, fmt.Errorf("render: unknown image format %q; want \"png\", \"svg\" or \"pdf\"", format)
 }
