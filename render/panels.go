@@ -147,7 +147,8 @@ func scaleName(maps []Figure) string {
 }
 
 // mergeSections returns the legend sections of all panels, each entry
-// once, in the order the panels first show it; an iso-line set lists the
+// once, in the order the panels first show it, the sections in a map's
+// order; an iso-line set lists the
 // levels drawn in any panel.
 func mergeSections(maps []Figure, rc regionColours, scale *shadeScale) []legendSection {
 	var out []legendSection
@@ -172,6 +173,9 @@ func mergeSections(maps []Figure, rc regionColours, scale *shadeScale) []legendS
 			}
 		}
 	}
+	// The sections keep the order a map's legend gives them.
+	rank := map[string]int{"Region": 0, "Edge": 1, isoHeading: 2, marksHeading: 3}
+	slices.SortStableFunc(out, func(a, b legendSection) int { return rank[a.heading] - rank[b.heading] })
 	return out
 }
 
@@ -284,7 +288,12 @@ func (p *Panels) draw(c draw.Canvas, rc regionColours, scale *shadeScale, sectio
 			y -= title.Height(line) * 1.1
 		}
 		plotC := draw.Crop(cell, 0, 0, 0, -(y1 - y + panelTitleGap))
-		data := drawMap(plotC, &p.Maps[i], rc, scale, fillDPI)
+		ps := scale
+		if p.Maps[i].Shade == nil {
+			// A panel without a shaded field keeps its flat stable fill.
+			ps = nil
+		}
+		data := drawMap(plotC, &p.Maps[i], rc, ps, fillDPI)
 		dataTop, dataBottom = max(dataTop, data.Max.Y), min(dataBottom, data.Min.Y)
 	}
 	if scale != nil {

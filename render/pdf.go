@@ -26,15 +26,18 @@ type pdfCanvas struct{ *vgpdf.Canvas }
 // DrawImage implements vg.Canvas. The vgpdf canvas draws an image
 // upside down within its rectangle; pdfCanvas hands it the image flipped
 // top to bottom, so that it comes out as given.
-func (c pdfCanvas) DrawImage(r vg.Rectangle, img image.Image) {
+func (c pdfCanvas) DrawImage(r vg.Rectangle, img image.Image) { c.Canvas.DrawImage(r, flipped(img)) }
+
+// flipped returns img upside down.
+func flipped(img image.Image) image.Image {
 	b := img.Bounds()
-	flipped := image.NewNRGBA(b)
+	out := image.NewNRGBA(b)
 	for y := b.Min.Y; y < b.Max.Y; y++ {
 		for x := b.Min.X; x < b.Max.X; x++ {
-			flipped.Set(x, b.Max.Y-1-(y-b.Min.Y), img.At(x, y))
+			out.Set(x, b.Max.Y-1-(y-b.Min.Y), img.At(x, y))
 		}
 	}
-	c.Canvas.DrawImage(r, flipped)
+	return out
 }
 
 // FillString implements vg.Canvas.
