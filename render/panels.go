@@ -276,18 +276,23 @@ func (p *Panels) draw(c draw.Canvas, rc regionColours, scale *shadeScale, sectio
 	cellH := (gridC.Size().Y - vg.Length(nrows-1)*panelSpacing) / vg.Length(nrows)
 	title := textStyle(panelTitleSize, true, inkColour)
 	title.YAlign = draw.YTop
+	lineH := title.Height("M") * 1.1
+	// Every panel of a row leaves room for the longest title of the row,
+	// so that the plots of a row line up.
+	titleLines := make([]int, nrows)
+	for i := range p.Maps {
+		titleLines[i/cols] = max(titleLines[i/cols], len(wrap(title, p.Maps[i].Title, cellW)))
+	}
 	dataTop, dataBottom := vg.Length(math.Inf(-1)), vg.Length(math.Inf(1))
 	for i := range p.Maps {
 		r, k := i/cols, i%cols
 		x0 := gridC.Min.X + vg.Length(k)*(cellW+panelSpacing)
 		y1 := gridC.Max.Y - vg.Length(r)*(cellH+panelSpacing)
 		cell := draw.Canvas{Canvas: c.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x0, Y: y1 - cellH}, Max: vg.Point{X: x0 + cellW, Y: y1}}}
-		y := y1
-		for _, line := range wrap(title, p.Maps[i].Title, cellW) {
-			cell.FillText(title, vg.Point{X: x0, Y: y}, line)
-			y -= title.Height(line) * 1.1
+		for n, line := range wrap(title, p.Maps[i].Title, cellW) {
+			cell.FillText(title, vg.Point{X: x0, Y: y1 - vg.Length(n)*lineH}, line)
 		}
-		plotC := draw.Crop(cell, 0, 0, 0, -(y1 - y + panelTitleGap))
+		plotC := draw.Crop(cell, 0, 0, 0, -(vg.Length(titleLines[r])*lineH + panelTitleGap))
 		ps := scale
 		if p.Maps[i].Shade == nil {
 			// A panel without a shaded field keeps its flat stable fill.

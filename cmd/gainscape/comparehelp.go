@@ -31,8 +31,9 @@ chosen: the window starts at twice the parameter's scale (Ku for kp,
 Ku·ω for ki, Ku/ω for kd, ω for corner frequencies), grows on every side the
 stable region reaches, and is then shrunk to the stable region with a small
 margin; where the region is unbounded it is cut at 3 times the scale beyond
-the region's other end. Panels of the same plane share one window, the
-smallest holding each one's. The window and the rule are printed.
+the region's other end. Panels of one structure in the same plane (the
+slices, or the plants) share one window, the smallest holding each one's;
+other structures keep their own. The window and the rule are printed.
 
 Panels:
   --plant EXPR        the plant; repeatable, LABEL=EXPR, for a panel row per

@@ -150,6 +150,9 @@ func printComparison(w io.Writer, c *study.Comparison, title string, elapsed tim
 			fmt.Fprintf(w, "            best ki over kd: as for panel %d\n", p.OverKdFrom)
 		case p.OverKdRule != "":
 			fmt.Fprintf(w, "            best ki over kd: %s, the window of each kd chosen likewise\n", p.OverKdRule)
+			if og := p.Table.OverKd; og != nil && og.Warning != "" {
+				fmt.Fprintf(w, "            warning: %s\n", og.Warning)
+			}
 		}
 	}
 	rows := tableRows(c)
@@ -199,6 +202,12 @@ func writeCompareNote(w io.Writer, c *study.Comparison, title, imageLink, respon
 		fmt.Fprintf(&b, "- Panel %d, %s: %s, plant `%s`, window %s %g to %g, %s %g to %g", k+1, p.Label, p.Map.Formula, p.Map.Plant, x.Param, x.Min, x.Max, y.Param, y.Min, y.Max)
 		if p.Window.AutoX || p.Window.AutoY {
 			b.WriteString(" (chosen automatically)")
+		}
+		if og := p.Table.OverKd; og != nil && p.OverKdFrom == 0 {
+			fmt.Fprintf(&b, "; best ki over kd searched for kd from %g to %g", og.Range[0], og.Range[1])
+			if og.Warning != "" {
+				fmt.Fprintf(&b, " (%s)", og.Warning)
+			}
 		}
 		b.WriteString("\n")
 	}

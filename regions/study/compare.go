@@ -100,10 +100,10 @@ type PanelResult struct {
 	base       loop.Loop
 }
 
-// Compare computes every panel of the request: its window (panels that
-// sweep the same two parameters with ranges to choose share one window,
-// the smallest holding each one's chosen window, so that they read
-// alike), a search for the best-ki design over kd for a structure with
+// Compare computes every panel of the request: its window (panels of one
+// structure that sweep the same two parameters with ranges to choose
+// share one window, the smallest holding each one's chosen window, so
+// that slices and plants read alike), a search for the best-ki design over kd for a structure with
 // kd that is not an axis (the panel is drawn at the kd found when no kd
 // is given), its map with the Ms overlay and the
 // best-ki and best-decay searches under the bound, its row of the table,
@@ -201,11 +201,12 @@ func withDefaultAxes(ps PanelSpec, l loop.Loop) PanelSpec {
 	return ps
 }
 
-// shareWindows gives panels that sweep the same two parameters, with the
-// same axes to choose, the smallest window holding each one's.
+// shareWindows gives panels of one structure that sweep the same two
+// parameters, with the same axes to choose (slices, or plants), the
+// smallest window holding each one's; other structures keep their own.
 func shareWindows(panels []*PanelResult, specs []PanelSpec) {
 	type key struct {
-		x, y         string
+		ctrl, x, y   string
 		autoX, autoY bool
 	}
 	groups := map[key][]int{}
@@ -214,7 +215,7 @@ func shareWindows(panels []*PanelResult, specs []PanelSpec) {
 		if !ps.AutoX && !ps.AutoY {
 			continue
 		}
-		g := key{ps.X.Param, ps.Y.Param, ps.AutoX, ps.AutoY}
+		g := key{strings.ToLower(ps.Loop.Controller), ps.X.Param, ps.Y.Param, ps.AutoX, ps.AutoY}
 		if groups[g] == nil {
 			order = append(order, g)
 		}
@@ -268,8 +269,7 @@ func (c *Comparison) runPanel(ctx context.Context, pr *PanelResult, ps PanelSpec
 	pr.Label = panelLabel(pr.Map, ps)
 	if pr.KdChosen {
 		kd := "kd = " + shortNumber(l.Values[kdIndex(l)])
-		r := pr.overKd.Range
-		pr.Label = strings.Replace(pr.Label, kd, fmt.Sprintf("%s (best of %g…%g)", kd, r[0], r[1]), 1)
+		pr.Label = strings.Replace(pr.Label, kd, kd+" (best)", 1)
 	}
 	if pr.KdChosen {
 		if err := takeBetterKi(job, pr, c.Bound); err != nil {

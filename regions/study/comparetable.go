@@ -237,7 +237,11 @@ func bestOverKd(ctx context.Context, ps PanelSpec, rng [2]float64, bound float64
 			}
 		}
 	}
-	return &export.OverGain{Param: "kd", Range: rng, Samples: evals, BestKi: top.point}, nil
+	og := &export.OverGain{Param: "kd", Range: rng, Samples: evals, BestKi: top.point}
+	if n > 1 && og.Failed == "" && (top.kd == lo || top.kd == hi) && og.Warning == "" {
+		og.Warning = fmt.Sprintf("kd = %g is an end of the range searched: the best may lie beyond it; widen --kd-range", top.kd)
+	}
+	return og, nil
 }
 
 // withValue returns vals with name set to v, replacing a value given.

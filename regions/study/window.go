@@ -295,7 +295,7 @@ func (ch *chooser) grow(b box, free [4]bool) (box, [4]bool, box, error) {
 // may be wide, and then again from the map of the cut window, until it
 // settles.
 func (ch *chooser) cutSides(b box, unb [4]bool, ext box, a int, cut *[4]bool) (box, error) {
-	reach := windowMultiple * ch.scale[a/2].Value
+	reach := roundSignificant(windowMultiple*ch.scale[a/2].Value, 3)
 	lo, hi := unb[a], unb[a+1]
 	cut[a], cut[a+1] = lo, hi
 	if lo && hi {
