@@ -307,14 +307,19 @@ func (p *Panels) draw(c draw.Canvas, rc regionColours, scale *shadeScale, sectio
 			Max: vg.Point{X: gridC.Max.X + p.scaleWidth(scale), Y: dataTop},
 		})
 	}
-	y := body.Min.Y + legendH
+	drawLegendRows(c, rows, vg.Point{X: body.Min.X, Y: body.Min.Y + legendH})
+}
+
+// drawLegendRows draws the rows of legendRows from the top-left corner
+// at.
+func drawLegendRows(c draw.Canvas, rows [][]legendSection, at vg.Point) {
+	y := at.Y
 	for _, row := range rows {
-		x := body.Min.X
+		x := at.X
 		var rowH vg.Length
 		for _, sec := range row {
 			w, h := sectionSize(sec)
-			sc := draw.Canvas{Canvas: c.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x, Y: y - h}, Max: vg.Point{X: x + w, Y: y}}}
-			drawSection(sc, sec)
+			drawSection(draw.Canvas{Canvas: c.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x, Y: y - h}, Max: vg.Point{X: x + w, Y: y}}}, sec)
 			x += w + legendRowGap
 			rowH = max(rowH, h)
 		}

@@ -143,18 +143,7 @@ func (r *Responses) draw(c draw.Canvas) {
 		area := draw.Crop(part.c, 0, 0, 0, -(ts.Height(part.title) + panelTitleGap))
 		r.plot(part.label, tmax, part.values, part.level).Draw(area)
 	}
-	y := body.Min.Y + legendH
-	for _, row := range rows {
-		x := body.Min.X
-		var rowH vg.Length
-		for _, s := range row {
-			w, hh := sectionSize(s)
-			drawSection(draw.Canvas{Canvas: c.Canvas, Rectangle: vg.Rectangle{Min: vg.Point{X: x, Y: y - hh}, Max: vg.Point{X: x + w, Y: y}}}, s)
-			x += w + legendRowGap
-			rowH = max(rowH, hh)
-		}
-		y -= rowH + sectionGap
-	}
+	drawLegendRows(c, rows, vg.Point{X: body.Min.X, Y: body.Min.Y + legendH})
 }
 
 // splitSection splits a long legend section into columns that each fit

@@ -116,7 +116,7 @@ func runCompare(ctx context.Context, args []string, stdout, stderr io.Writer) er
 
 	plan := safefile.NewPlan()
 	outputs := map[string]*safefile.Output{}
-	for _, key := range []string{"output.image", "output.data", "output.note", "output.responses"} {
+	for _, key := range compareOutputs {
 		if p := outputPath(c.Output, key); p != "" {
 			outputs[key] = plan.Add(c.Where(key), p)
 		}
@@ -157,22 +157,12 @@ func runCompare(ctx context.Context, args []string, stdout, stderr io.Writer) er
 			return render.WriteResponses(w, formats["output.responses"], fig)
 		},
 	}
-	for _, key := range []string{"output.image", "output.data", "output.note", "output.responses"} {
-		if o := outputs[key]; o != nil {
-			if err := o.Write(ctx, writers[key]); err != nil {
-				return err
-			}
-		}
-	}
-	if err := ctx.Err(); err != nil {
-		return err
-	}
-	if err := plan.Commit(); err != nil {
+	if err := writeAll(ctx, plan, outputs, writers, compareOutputs); err != nil {
 		return err
 	}
 	if !f.quiet {
 		printComparison(stdout, cmp, title, elapsed)
-		for _, key := range []string{"output.image", "output.data", "output.note", "output.responses"} {
+		for _, key := range compareOutputs {
 			if p := outputPath(c.Output, key); p != "" && p != safefile.Stdout {
 				fmt.Fprintf(stdout, "%-11s %s\n", strings.TrimPrefix(key, "output."), p)
 			}
@@ -181,6 +171,10 @@ func runCompare(ctx context.Context, args []string, stdout, stderr io.Writer) er
 	}
 	return nil
 }
+
+// compareOutputs are the keys of a comparison's outputs, in the order
+// they are written.
+var compareOutputs = []string{"output.image", "output.data", "output.note", "output.responses"}
 
 // outputPath returns the output file of key.
 func outputPath(o scenario.CompareOutput, key string) string {

@@ -167,7 +167,20 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		"output.note":  func(w io.Writer) error { return writeNote(w, res, sc, noteLink(sc.Output)) },
 		"save":         func(w io.Writer) error { return scenario.EncodeFile(w, sc, f.save) },
 	}
-	for _, key := range []string{"output.image", "output.data", "output.csv", "output.note", "save"} {
+	if err := writeAll(ctx, plan, outputs, writers, []string{"output.image", "output.data", "output.csv", "output.note", "save"}); err != nil {
+		return err
+	}
+	if !f.quiet {
+		printSummary(stdout, res, sc, f, elapsed)
+	}
+	return nil
+}
+
+// writeAll writes the planned outputs, in the order of keys, each with
+// its writer, and commits the plan: every file appears at once, or none
+// if the run is interrupted or a writer fails.
+func writeAll(ctx context.Context, plan *safefile.Plan, outputs map[string]*safefile.Output, writers map[string]func(io.Writer) error, keys []string) error {
+	for _, key := range keys {
 		if o := outputs[key]; o != nil {
 			if err := o.Write(ctx, writers[key]); err != nil {
 				return err
@@ -177,13 +190,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if err := ctx.Err(); err != nil {
 		return err
 	}
-	if err := plan.Commit(); err != nil {
-		return err
-	}
-	if !f.quiet {
-		printSummary(stdout, res, sc, f, elapsed)
-	}
-	return nil
+	return plan.Commit()
 }
 
 // noteLink is the image as a note beside it links it, or "" when there is

@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"fmt"
 	"io"
-	"os"
 	"sort"
 	"strings"
 
@@ -92,9 +91,9 @@ func DefaultCompare() Compare {
 
 // LoadCompare reads the compare scenario file at path; see DecodeCompare.
 func LoadCompare(path string) (Compare, error) {
-	f, err := os.Open(path)
+	f, err := openFile(path)
 	if err != nil {
-		return Compare{}, &Error{File: path, Msg: "cannot be opened: " + err.Error()}
+		return Compare{}, err
 	}
 	defer f.Close()
 	return DecodeCompare(f, path)
@@ -110,15 +109,9 @@ func DecodeCompare(r io.Reader, name string) (Compare, error) {
 	fail := func(key, format string, args ...any) (Compare, error) {
 		return Compare{}, &Error{File: name, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
-	data, err := io.ReadAll(io.LimitReader(r, maxFileSize+1))
+	data, err := readText(r, name)
 	if err != nil {
-		return fail("", "cannot be read: %v", err)
-	}
-	if len(data) > maxFileSize {
-		return fail("", "is larger than %d bytes; a scenario file is a short TOML text", maxFileSize)
-	}
-	if line := nesting(data); line > 0 {
-		return Compare{}, &Error{File: name, Line: line, Msg: fmt.Sprintf("nested deeper than %d levels of arrays, tables and dotted keys", MaxNesting)}
+		return Compare{}, err
 	}
 	var top struct {
 		Schema  toml.Primitive   `toml:"schema"`

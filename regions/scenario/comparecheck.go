@@ -2,10 +2,8 @@ package scenario
 
 import (
 	"fmt"
-	"path/filepath"
 	"slices"
 	"strings"
-	"unicode/utf8"
 
 	"gainscape/regions/spec"
 )
@@ -105,21 +103,7 @@ func (o CompareOutput) validate(v *validator) {
 	} {
 		v.path(p.key, p.val, p.kind, p.exts)
 	}
-	v.text("output.title", o.Title)
-	if n := utf8.RuneCountInString(o.Title); n > MaxTitleRunes {
-		v.add("output.title", "%s has %d characters; a title takes at most %d", quoteShort(o.Title), n, MaxTitleRunes)
-	}
-	for _, d := range []struct {
-		key string
-		cm  float64
-	}{{"output.width_cm", o.WidthCm}, {"output.height_cm", o.HeightCm}} {
-		if d.cm != 0 && !(d.cm >= MinSizeCm && d.cm <= MaxSizeCm) {
-			v.add(d.key, "%s cm is outside %d to %d cm (0 takes the natural size)", formatNumber(d.cm), MinSizeCm, MaxSizeCm)
-		}
-	}
-	if o.DPI < MinDPI || o.DPI > MaxDPI {
-		v.add("output.dpi", "%d dots per inch is outside %d to %d", o.DPI, MinDPI, MaxDPI)
-	}
+	v.looks(o.Title, o.WidthCm, o.HeightCm, o.DPI, true)
 }
 
 // compareOutputKeys are the keys of a comparison's output files.
@@ -143,28 +127,9 @@ func (o *CompareOutput) path(key string) *string {
 // its folder and keeps them inside it unless allowOutside, as
 // Scenario.ResolvePaths does.
 func (c *Compare) ResolvePaths(allowOutside bool) error {
-	var errs []error
 	resolved := c.Output
-	for _, key := range compareOutputKeys {
-		at, ok := c.Origins.origin(key)
-		p := resolved.path(key)
-		if !ok || at.File == "" || at.Flag != "" || *p == "" || *p == "-" {
-			continue
-		}
-		dir := filepath.Dir(at.File)
-		if !allowOutside {
-			if why := inside(dir, *p); why != "" {
-				errs = append(errs, &Error{File: at.File, Line: at.Line, Key: key, Msg: fmt.Sprintf("%s %s; a scenario writes only inside its own folder unless --%s is given",
-					quoteShort(*p), why, OutsidePathsFlag)})
-				continue
-			}
-		}
-		if !filepath.IsAbs(*p) {
-			*p = filepath.Join(dir, *p)
-		}
-	}
-	if len(errs) > 0 {
-		return joinReported(c.Origins[""].File, errs)
+	if err := resolveOutputs(c.Origins, compareOutputKeys, resolved.path, allowOutside); err != nil {
+		return err
 	}
 	c.Output = resolved
 	return nil
