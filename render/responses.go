@@ -184,15 +184,49 @@ func (r *Responses) plot(xlabel string, tmax float64, values func(Series) []floa
 	ref := plotter.XYs{{X: 0, Y: level}, {X: tmax, Y: level}}
 	p.Add(plotOnly{&plotter.Line{XYs: ref, LineStyle: draw.LineStyle{Color: color.Gray{Y: 0x90}, Width: 0.6}}})
 	for i, s := range r.Series {
-		v := values(s)
-		xys := make(plotter.XYs, len(s.Time))
-		for k := range s.Time {
-			xys[k].X, xys[k].Y = s.Time[k], v[k]
-		}
-		p.Add(plotOnly{&plotter.Line{XYs: xys, LineStyle: seriesStyle(i)}})
+		p.Add(plotOnly{&plotter.Line{XYs: thinned(s.Time, values(s), maxLinePoints), LineStyle: seriesStyle(i)}})
 	}
 	p.Add(frame{})
 	return p
+}
+
+// maxLinePoints bounds the points drawn of one response: a few per
+// pixel of a page-wide figure (about 1300 pixels at 200 dpi), each run
+// of four points standing for one pixel column or so.
+const maxLinePoints = 1600
+
+// thinned returns the points (t[k], v[k]), at most about n of them: a
+// longer series is cut into n/4 runs of samples, each drawn by its first
+// and last sample and its lowest and highest in the order they occur, so
+// that no peak is lost at the resolution of the figure.
+func thinned(t, v []float64, n int) plotter.XYs {
+	if len(t) <= n {
+		xys := make(plotter.XYs, len(t))
+		for k := range t {
+			xys[k].X, xys[k].Y = t[k], v[k]
+		}
+		return xys
+	}
+	runs := n / 4
+	xys := make(plotter.XYs, 0, n)
+	for r := range runs {
+		a, b := r*len(t)/runs, (r+1)*len(t)/runs
+		lo, hi := a, a
+		for k := a; k < b; k++ {
+			if v[k] < v[lo] {
+				lo = k
+			}
+			if v[k] > v[hi] {
+				hi = k
+			}
+		}
+		for _, k := range []int{a, min(lo, hi), max(lo, hi), b - 1} {
+			if len(xys) == 0 || xys[len(xys)-1].X != t[k] {
+				xys = append(xys, plotter.XY{X: t[k], Y: v[k]})
+			}
+		}
+	}
+	return xys
 }
 
 // frame strokes the border of a plot's data area.

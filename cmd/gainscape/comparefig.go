@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/plot/vg"
 
+	"gainscape/regions/export"
 	"gainscape/regions/scenario"
 	"gainscape/regions/study"
 	"gainscape/render"
@@ -19,6 +20,11 @@ func panelsFigure(c *study.Comparison, sc scenario.Compare, title string) render
 		Width: vg.Length(sc.Output.WidthCm) * vg.Centimeter, Height: vg.Length(sc.Output.HeightCm) * vg.Centimeter}
 	fig.Notes = []string{fmt.Sprintf("Best points under %s: ki, the largest integral gain (best load-disturbance design); σ, the fastest decay.", boundNote(c))}
 	fig.MarkLegend = "best point (ki or σ)"
+	for k, p := range c.Panels {
+		if p.Caveat != "" {
+			fig.Notes = append(fig.Notes, fmt.Sprintf("Panel %d: %s.", k+1, p.Caveat))
+		}
+	}
 	for _, p := range c.Panels {
 		msc := scenario.Default()
 		msc.Output.Title = p.Label
@@ -26,7 +32,11 @@ func panelsFigure(c *study.Comparison, sc scenario.Compare, title string) render
 		msc.Overlays.MsLevels = sc.Settings.MsLevels
 		f := figureOf(p.Map, msc, "")
 		f.Marks = nil
-		for _, b := range p.Map.Overlays.Best {
+		var best []export.Point
+		if p.Map.Overlays != nil {
+			best = p.Map.Overlays.Best
+		}
+		for _, b := range best {
 			if b.Failed != "" {
 				continue
 			}
@@ -68,7 +78,7 @@ func responsesFigure(c *study.Comparison, sc scenario.Compare, title string) (re
 		fig.Notes = append(fig.Notes, "Not shown: "+strings.Join(missing, "; ")+".")
 	}
 	if len(fig.Series) == 0 {
-		return fig, userErr("--responses: no panel has a best-ki design to show the responses of (a structure with integral action is needed)")
+		return fig, userErr("no panel has a best load-disturbance design to draw: %s", strings.Join(missing, "; "))
 	}
 	return fig, nil
 }

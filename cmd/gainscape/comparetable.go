@@ -145,6 +145,9 @@ func printComparison(w io.Writer, c *study.Comparison, title string, elapsed tim
 		if p.Window.AutoX || p.Window.AutoY {
 			fmt.Fprintf(w, "            window chosen: %s\n", p.Window.Rule)
 		}
+		if p.Caveat != "" {
+			fmt.Fprintf(w, "            CAUTION: %s\n", p.Caveat)
+		}
 		switch {
 		case p.OverKdFrom > 0:
 			fmt.Fprintf(w, "            best ki over kd: as for panel %d\n", p.OverKdFrom)
@@ -202,6 +205,9 @@ func writeCompareNote(w io.Writer, c *study.Comparison, title, imageLink, respon
 		fmt.Fprintf(&b, "- Panel %d, %s: %s, plant `%s`, window %s %g to %g, %s %g to %g", k+1, p.Label, p.Map.Formula, p.Map.Plant, x.Param, x.Min, x.Max, y.Param, y.Min, y.Max)
 		if p.Window.AutoX || p.Window.AutoY {
 			b.WriteString(" (chosen automatically)")
+		}
+		if p.Caveat != "" {
+			fmt.Fprintf(&b, "; **caution**: %s", p.Caveat)
 		}
 		if og := p.Table.OverKd; og != nil && p.OverKdFrom == 0 {
 			fmt.Fprintf(&b, "; best ki over kd searched for kd from %g to %g", og.Range[0], og.Range[1])

@@ -41,6 +41,8 @@ type ComparePanel struct {
 	Responses *response.Figures `json:"responses"`
 	// ResponseFailed says why there are no responses.
 	ResponseFailed string `json:"response_failed,omitempty"`
+	// Caveat says which figures of the panel cannot be relied on.
+	Caveat string `json:"caveat,omitempty"`
 }
 
 // WindowChoice says how a panel's window was chosen.

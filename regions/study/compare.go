@@ -93,6 +93,9 @@ type PanelResult struct {
 	// no kd having been given.
 	OverKdRule string
 	KdChosen   bool
+	// Caveat, when set, says which figures of the panel cannot be relied
+	// on, and why.
+	Caveat string
 	// OverKdFrom, when positive, is the panel (counted from 1) whose
 	// search over kd this panel shares: the same loop but for kd.
 	OverKdFrom int
@@ -133,8 +136,8 @@ func Compare(ctx context.Context, req CompareRequest, opt Options) (*Comparison,
 			return nil, panelErr(k, err)
 		}
 		ps = withDefaultAxes(ps, l)
-		pr := &PanelResult{PlantLabel: ps.PlantLabel, Sample: l.Plant.Sample}
-		if overKd(l, ps) {
+		pr := &PanelResult{PlantLabel: ps.PlantLabel, Sample: l.Plant.Sample, Caveat: msCaveat(l)}
+		if overKd(l, ps) && pr.Caveat == "" {
 			rng, rule := kdRange(l, req.KdRange)
 			pr.OverKdRule = rule
 			key := searchKey(ps)
@@ -259,6 +262,9 @@ func (c *Comparison) runPanel(ctx context.Context, pr *PanelResult, ps PanelSpec
 	}
 	sc := panelScenario(ps.Loop, pr.Window, cols, rows)
 	sc.Overlays = scenario.Overlays{Decay: req.Decay, MsLevels: req.MsLevels, Best: best, MsBound: c.Bound}
+	if pr.Caveat != "" {
+		sc.Overlays.MsLevels, sc.Overlays.Best = nil, nil
+	}
 	job, err := NewMap(sc)
 	if err != nil {
 		return err
@@ -278,6 +284,9 @@ func (c *Comparison) runPanel(ctx context.Context, pr *PanelResult, ps PanelSpec
 	}
 	pr.Table = tableOf(pr.Map, l, c.Bound, hasKi == nil)
 	pr.Table.OverKd = pr.overKd
+	if pr.Caveat != "" {
+		pr.Table.BestKi.Failed, pr.Table.BestDecay.Failed = caveatShort, caveatShort
+	}
 	return nil
 }
 
@@ -327,6 +336,27 @@ func searchKey(ps PanelSpec) string {
 	slices.SortFunc(ls.Fixed, func(a, b spec.Value) int { return strings.Compare(a.Param, b.Param) })
 	return fmt.Sprintf("%#v|%s|%s", ls, ps.X.Param, ps.Y.Param)
 }
+
+// msCaveat says why l gets no Ms-based figures, or "" when it does: Ms,
+// the margins and the searches bounded by Ms come from package margins,
+// which takes the open loop as a rational function of s: it would leave
+// a dead time out and read the polynomials of a sampled loop, in z, as if
+// they were in s. Such a panel shows its stable region, stable share and
+// ultimate gain only. When margins serves these loops, this is the one
+// place to change.
+func msCaveat(l loop.Loop) string {
+	switch {
+	case l.Plant.Sample > 0:
+		return "Ms and the margins of sampled loops are not computed yet, so this panel shows its stable region without Ms and searches"
+	case l.Plant.Delay > 0:
+		return "Ms and the margins of loops with dead time are not computed yet, so this panel shows its stable region without Ms and searches"
+	}
+	return ""
+}
+
+// caveatShort is the table's entry for a search not run for a panel
+// with a caveat.
+const caveatShort = "not run: no Ms for this kind of loop yet"
 
 // kdIndex returns the index of kd in l's family.
 func kdIndex(l loop.Loop) int {

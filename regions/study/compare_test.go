@@ -165,3 +165,23 @@ func TestCompareRefusals(t *testing.T) {
 		})
 	}
 }
+
+// TestCompareCaveats: panels of a dead-time loop and a sampled loop
+// (invented plants) are drawn with their stable regions, and their
+// Ms-based figures are refused with the reason rather than computed from
+// a frequency response that leaves the dead time or the sampling out.
+func TestCompareCaveats(t *testing.T) {
+	c := runCompare(t, CompareRequest{Panels: []PanelSpec{
+		{Loop: LoopSpec{Plant: "2*exp(-1.5*s)/((4*s+1)*(s+1))", Controller: "pid"}},
+		{Loop: LoopSpec{Plant: "2/((4*s+1)*(s+1))", Controller: "pi", Sample: 0.5}},
+		{Loop: LoopSpec{Plant: "2/((4*s+1)*(s+1))", Controller: "pi"}},
+	}, Columns: 50, Rows: 40})
+	for k, p := range c.Panels[:2] {
+		if p.Caveat == "" || p.Table.BestKi.Failed == "" || p.Response != nil || !(p.Table.StableShare > 0) || p.Table.OverKd != nil {
+			t.Errorf("panel %d: caveat %q, best ki %+v, share %g", k+1, p.Caveat, p.Table.BestKi, p.Table.StableShare)
+		}
+	}
+	if p := c.Panels[2]; p.Caveat != "" || p.Table.BestKi.Failed != "" {
+		t.Errorf("the continuous panel: caveat %q, best ki %+v", p.Caveat, p.Table.BestKi)
+	}
+}

@@ -31,6 +31,9 @@ func tableOf(res *MapResult, l loop.Loop, bound float64, hasKi bool) export.Comp
 		t.BestKi.Failed = "the structure has no integral action: a load step leaves a steady error"
 	}
 	ov := res.Overlays
+	if ov == nil {
+		return t
+	}
 	for _, p := range ov.Best {
 		switch p.Label {
 		case "best " + BestIntegral:

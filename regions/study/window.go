@@ -147,6 +147,7 @@ type chooser struct {
 	l     loop.Loop
 	names [2]string
 	idx   [2]int
+	plane plane.Setup
 	scale [2]Scale
 	opt   Options
 }
@@ -158,7 +159,7 @@ func newChooser(ctx context.Context, l loop.Loop, x, y spec.Axis, opt Options) (
 		return nil, inputErr("--x", "axes.x", x.Param+" --y "+y.Param, "%v", err)
 	}
 	sc := loopScales(l)
-	return &chooser{ctx: ctx, l: l, names: [2]string{x.Param, y.Param}, idx: [2]int{s.XIndex, s.YIndex},
+	return &chooser{ctx: ctx, l: l, names: [2]string{x.Param, y.Param}, idx: [2]int{s.XIndex, s.YIndex}, plane: s,
 		scale: [2]Scale{parameterScale(l, x.Param, sc), parameterScale(l, y.Param, sc)}, opt: opt}, nil
 }
 
@@ -227,11 +228,13 @@ func (ch *chooser) sideStable(b box, k int) bool {
 			return len(ivs) > 0
 		}
 	}
-	num, den := l.Open()
-	counter := l.Test().NewCounter(max(len(num), len(den)))
+	// The plane's own functions, as the grid evaluates them.
+	counter, sc := ch.plane.NewCounter(), ch.plane.NewScratch()
 	for i := range sideNodes {
 		v := lo + float64(i)*(hi-lo)/(sideNodes-1)
-		if counter.Count(l.Set(ch.idx[along], v).Function()).Stable() {
+		xy := [2]float64{b[k], b[k]}
+		xy[along] = v
+		if counter.Count(ch.plane.Function(sc, xy[0], xy[1])).Stable() {
 			return true
 		}
 	}

@@ -26,6 +26,7 @@ func TestWindowHoldsTheRegion(t *testing.T) {
 		{name: "PID kp-ki on the demo pump", plant: "3/((s+0.5)*(s+2)*(0.4*s+1)^2)", ctrl: "pid", fixed: []spec.Value{{Param: "kd", V: 0.5}, {Param: "tau", V: 0.05}}, x: "kp", y: "ki"},
 		{name: "PID kp-kd", plant: "1/(s+1)^4", ctrl: "pid", fixed: []spec.Value{{Param: "ki", V: 0.2}, {Param: "tau", V: 0.1}}, x: "kp", y: "kd"},
 		{name: "PI with dead time", plant: "2*exp(-1.5*s)/((4*s+1)*(s+1))", ctrl: "pi", x: "kp", y: "ki"},
+		{name: "ideal PID with dead time", plant: "2*exp(-1.5*s)/((4*s+1)*(s+1))", ctrl: "pid", fixed: []spec.Value{{Param: "kd", V: 0.3}}, x: "kp", y: "ki"},
 		{name: "PI sampled", plant: "1/((s+1)*(0.5*s+1))", ctrl: "pi", x: "kp", y: "ki", sample: 0.2},
 		{name: "open-loop unstable", plant: "4/((s-1)*(s+3)*(0.1*s+1))", ctrl: "pi", x: "kp", y: "ki"},
 	}
