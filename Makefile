@@ -34,6 +34,7 @@ fuzz:
 	$(GO) test -run XXX -fuzz '^FuzzParseList$$' -fuzztime 3m ./regions/expr/
 	$(GO) test -run XXX -fuzz '^FuzzCount$$' -fuzztime 3m ./regions/routh/
 	$(GO) test -run XXX -fuzz '^FuzzDecode$$' -fuzztime 3m ./regions/scenario/
+	$(GO) test -run XXX -fuzz '^FuzzDecodeCompare$$' -fuzztime 3m ./regions/scenario/
 
 check:
 	gofmt -l .

@@ -1,6 +1,8 @@
 package scenario
 
 import (
+	"bytes"
+	"errors"
 	"strings"
 	"testing"
 )
@@ -113,4 +115,37 @@ func TestComparePathsStayInside(t *testing.T) {
 	if err := c.ResolvePaths(false); err != nil || c.Output.Responses != dir+"/cmp-steps.png" {
 		t.Fatalf("%v, responses at %q", err, c.Output.Responses)
 	}
+}
+
+// FuzzDecodeCompare checks that DecodeCompare and Validate never panic
+// or run long, and that every error is made of *Error values naming the
+// file, at most three.
+func FuzzDecodeCompare(f *testing.F) {
+	f.Add([]byte(compareFile))
+	for _, s := range nestingSeeds() {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		start, ok := cpuTime()
+		c, err := DecodeCompare(bytes.NewReader(data), "fuzz.toml")
+		if err == nil {
+			err = c.Validate()
+		}
+		if end, _ := cpuTime(); ok && end-start > decodeBudget {
+			t.Errorf("DecodeCompare took %v of processor time", end-start)
+		}
+		if err == nil {
+			return
+		}
+		errs := flatten(err)
+		if len(errs) > maxReported {
+			t.Errorf("%d errors joined; want at most %d", len(errs), maxReported)
+		}
+		for _, e := range errs {
+			var se *Error
+			if !errors.As(e, &se) || se.File != "fuzz.toml" || se.Msg == "" {
+				t.Fatalf("error %v (%T) is not an *Error naming the file", e, e)
+			}
+		}
+	})
 }
