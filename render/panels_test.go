@@ -126,6 +126,9 @@ func TestMergedLegend(t *testing.T) {
 }
 
 func TestWriteResponses(t *testing.T) {
+	if len(seriesLooks) != MaxSeries {
+		t.Fatalf("%d looks for %d series", len(seriesLooks), MaxSeries)
+	}
 	// y = 1 − e^(−t), a first-order lag's step response, and its load
 	// counterpart e^(−t) − e^(−2t).
 	n := 200

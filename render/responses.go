@@ -58,8 +58,8 @@ var seriesLooks = []struct {
 	{0, 0.10, []vg.Length{6, 1.5, 1.2, 1.5, 1.2, 1.5}},
 }
 
-// MaxSeries is the most designs a Responses figure draws.
-var MaxSeries = len(seriesLooks)
+// MaxSeries is the most designs a Responses figure draws: one per look.
+const MaxSeries = 9
 
 // seriesStyle returns the stroke of the i-th design.
 func seriesStyle(i int) draw.LineStyle {

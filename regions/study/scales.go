@@ -16,8 +16,6 @@ import (
 type gainScale struct {
 	gain, freq         float64
 	gainFrom, freqFrom string
-	// ultimate is set when gain is the ultimate gain.
-	ultimate bool
 }
 
 // loopScales returns the gain and frequency scales of the plant of l:
@@ -32,7 +30,7 @@ func loopScales(l loop.Loop) gainScale {
 		sc.freq, sc.freqFrom = 1, "1 (the plant has no pole or zero away from the origin)"
 	}
 	if ku, ok := ultimateGain(l); ok {
-		sc.gain, sc.gainFrom, sc.ultimate = ku, fmt.Sprintf("Ku = %.4g", ku), true
+		sc.gain, sc.gainFrom = ku, fmt.Sprintf("Ku = %.4g", ku)
 		return sc
 	}
 	g := plantMagnitude(l.Plant, sc.freq)
