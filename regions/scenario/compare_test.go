@@ -2,7 +2,6 @@ package scenario
 
 import (
 	"bytes"
-	"errors"
 	"strings"
 	"testing"
 )
@@ -134,18 +133,8 @@ func FuzzDecodeCompare(f *testing.F) {
 		if end, _ := cpuTime(); ok && end-start > decodeBudget {
 			t.Errorf("DecodeCompare took %v of processor time", end-start)
 		}
-		if err == nil {
-			return
-		}
-		errs := flatten(err)
-		if len(errs) > maxReported {
-			t.Errorf("%d errors joined; want at most %d", len(errs), maxReported)
-		}
-		for _, e := range errs {
-			var se *Error
-			if !errors.As(e, &se) || se.File != "fuzz.toml" || se.Msg == "" {
-				t.Fatalf("error %v (%T) is not an *Error naming the file", e, e)
-			}
+		if err != nil {
+			checkFuzzError(t, err)
 		}
 	})
 }
