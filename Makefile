@@ -14,11 +14,15 @@ demo: build
 	./bin/gainscape map
 
 # Re-make every image in examples/ from its scenario (output paths in a
-# scenario are taken from the scenario's own folder).
+# scenario are taken from the scenario's own folder); a file named
+# *-compare.toml is a comparison, with its note and responses.
 examples: build
 	./bin/gainscape map -o examples/demo-pump-pid.png --grid 400x300 --quiet
 	for f in examples/*.toml; do \
-		./bin/gainscape map --scenario "$$f" --quiet || exit 1; \
+		case "$$f" in \
+		*-compare.toml) ./bin/gainscape compare --scenario "$$f" --quiet || exit 1 ;; \
+		*) ./bin/gainscape map --scenario "$$f" --quiet || exit 1 ;; \
+		esac; \
 	done
 
 bench:
@@ -31,6 +35,7 @@ fuzz:
 	$(GO) test -run XXX -fuzz '^FuzzParsePlant$$' -fuzztime 3m ./regions/expr/
 	$(GO) test -run XXX -fuzz '^FuzzCount$$' -fuzztime 3m ./regions/routh/
 	$(GO) test -run XXX -fuzz '^FuzzDecode$$' -fuzztime 3m ./regions/scenario/
+	$(GO) test -run XXX -fuzz '^FuzzDecodeCompare$$' -fuzztime 3m ./regions/scenario/
 
 check:
 	gofmt -l .

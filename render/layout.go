@@ -65,9 +65,7 @@ func drawFigure(c draw.Canvas, f *Figure, fillDPI int) {
 	}
 
 	plotC := draw.Crop(body, 0, -(panelW + panelGap + scaleW), 0, 0)
-	p, _ := buildPlot(f, rc, scale, fillDPI)
-	p.Draw(plotC)
-	data := p.DataCanvas(plotC)
+	data := drawMap(plotC, f, rc, scale, fillDPI)
 	if scale != nil {
 		drawScale(c, scale, f.Shade.Name, vg.Rectangle{
 			Min: vg.Point{X: plotC.Max.X, Y: data.Min.Y},
@@ -82,14 +80,35 @@ func drawFigure(c draw.Canvas, f *Figure, fillDPI int) {
 	}
 }
 
+// drawMap draws the map of f, its axes included, into c, and returns
+// the canvas of its data area. The legend, the shading scale and the
+// header are the caller's: a figure of one map sets them beside it, a
+// figure of several shares them.
+func drawMap(c draw.Canvas, f *Figure, rc regionColours, scale *shadeScale, fillDPI int) draw.Canvas {
+	p, _ := buildPlot(f, rc, scale, fillDPI)
+	p.Draw(c)
+	return p.DataCanvas(c)
+}
+
 // drawHeader sets the title and notes, wrapped to the width of c, from
 // its top edge and returns the height used.
-func drawHeader(c draw.Canvas, f *Figure) vg.Length {
+func drawHeader(c draw.Canvas, f *Figure) vg.Length { return layHeader(c, f) }
+
+// headerUsed returns the height drawHeader would use at the given width.
+func headerUsed(f *Figure, width vg.Length) vg.Length {
+	return layHeader(draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: width}}}, f)
+}
+
+// layHeader lays the header out in c, drawing it unless c has no
+// canvas, and returns the height used.
+func layHeader(c draw.Canvas, f *Figure) vg.Length {
 	y := c.Max.Y
 	put := func(s text.Style, txt string) {
 		s.YAlign = text.YTop
 		for _, line := range wrap(s, txt, c.Size().X) {
-			c.FillText(s, vg.Point{X: c.Min.X, Y: y}, line)
+			if c.Canvas != nil {
+				c.FillText(s, vg.Point{X: c.Min.X, Y: y}, line)
+			}
 			y -= s.Height(line) * 1.1
 		}
 	}

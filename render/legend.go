@@ -103,7 +103,7 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 		out = append(out, cmp)
 	}
 
-	iso := legendSection{heading: "Iso-lines"}
+	iso := legendSection{heading: isoHeading}
 	for _, cs := range f.Contours {
 		if drawn := drawnLevels(cs); len(drawn.Levels) > 0 {
 			iso.entries = append(iso.entries, legendEntry{contourText(drawn), []plot.Thumbnailer{lineThumb{contourStyle(cs.Look)}}})
@@ -114,10 +114,16 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 	}
 
 	if len(f.Marks) > 0 {
-		out = append(out, legendSection{heading: "Marks", entries: []legendEntry{{"design point", []plot.Thumbnailer{markThumb{}}}}})
+		out = append(out, legendSection{heading: marksHeading, entries: []legendEntry{{"design point", []plot.Thumbnailer{markThumb{}}}}})
 	}
 	return out
 }
+
+// isoHeading heads the legend's section of iso-lines.
+const isoHeading = "Iso-lines"
+
+// marksHeading heads the legend's section of design points.
+const marksHeading = "Marks"
 
 // countText is the legend text for k unstable roots: in the right half
 // plane, or outside the unit circle for a sampled map.

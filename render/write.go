@@ -34,25 +34,31 @@ func Write(w io.Writer, format string, f Figure) error {
 		return err
 	}
 	f = f.withDefaults()
-	var cv vg.CanvasWriterTo
-	fillDPI := 0
-	switch format {
-	case "png":
-		cv = pngCanvas{vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(f.Width, f.Height), vgimg.UseDPI(f.DPI))}, f.DPI}
-	case "svg":
-		cv = svgCanvas{vgsvg.New(f.Width, f.Height)}
-		fillDPI = svgFillDPI
-	case "pdf":
-		pc := vgpdf.New(f.Width, f.Height)
-		pc.EmbedFonts(true)
-		cv = pc
-		fillDPI = svgFillDPI
-	default:
-		return fmt.Errorf("render: unknown image format %q; want \"png\", \"svg\" or \"pdf\"", format)
+	cv, fillDPI, err := newCanvas(format, f.Width, f.Height, f.DPI)
+	if err != nil {
+		return err
 	}
 	drawFigure(draw.New(cv), &f, fillDPI)
-	_, err := cv.WriteTo(w)
+	_, err = cv.WriteTo(w)
 	return err
+}
+
+// newCanvas returns a canvas of the given size writing format ("png",
+// "svg" or "pdf", dpi the PNG resolution) and the resolution of the
+// image that holds cell fills: 0 for PNG, whose fills are drawn
+// directly, svgFillDPI for the vector formats.
+func newCanvas(format string, width, height vg.Length, dpi int) (vg.CanvasWriterTo, int, error) {
+	switch format {
+	case "png":
+		return pngCanvas{vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(width, height), vgimg.UseDPI(dpi))}, dpi}, 0, nil
+	case "svg":
+		return svgCanvas{vgsvg.New(width, height)}, svgFillDPI, nil
+	case "pdf":
+		pc := vgpdf.New(width, height)
+		pc.EmbedFonts(true)
+		return pdfCanvas{pc}, svgFillDPI, nil
+	}
+	return nil, 0, fmt.Errorf("render: unknown image format %q; want \"png\", \"svg\" or \"pdf\"", format)
 }
 
 // pngCanvas is a PNG canvas that writes its resolution into the file, as

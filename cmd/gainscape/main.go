@@ -6,6 +6,7 @@
 //
 //	gainscape map [flags]     draw a stability map (no flags: a built-in demo)
 //	gainscape probe [flags]   margins, poles and robustness of one design point
+//	gainscape compare [flags] controller structures side by side
 //	gainscape help [command]  show help
 //	gainscape version         show the version
 //
@@ -59,15 +60,17 @@ Commands:
   probe    how stable and how robust one design point is: sign array, poles,
            margins, Ms, distance to the nearest edge; or, with --vary, the
            stable intervals of one parameter
+  compare  controller structures side by side: one figure of panels, one
+           table of comparable figures, the step responses of the best designs
   help     show help for a command
   version  show the version
 
 With no flags, "gainscape map" draws a built-in demo scenario.
-Run "gainscape help map" or "gainscape help probe" for every flag with examples.
+Run "gainscape help map", "gainscape help probe" or "gainscape help compare" for every flag with examples.
 `
 
 // commands are the subcommands, for help and for suggestions on a typo.
-var commands = []string{"map", "probe", "help", "version"}
+var commands = []string{"map", "probe", "compare", "help", "version"}
 
 func main() {
 	var ctx context.Context
@@ -98,6 +101,8 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		err = runMap(ctx, args[1:], stdout, stderr)
 	case "probe":
 		err = runProbe(ctx, args[1:], stdout)
+	case "compare":
+		err = runCompare(ctx, args[1:], stdout, stderr)
 	case "help", "-h", "--help":
 		topic := ""
 		if len(args) > 1 {
@@ -120,6 +125,8 @@ func printHelp(stdout, stderr io.Writer, topic string) int {
 		fmt.Fprint(stdout, mapHelp)
 	case "probe":
 		fmt.Fprint(stdout, probeHelp)
+	case "compare":
+		fmt.Fprint(stdout, compareHelp)
 	case "", "help", "version":
 		fmt.Fprint(stdout, overview)
 	default:

@@ -59,6 +59,8 @@ type mapFlags struct {
 	compare        string
 	pade           int
 	demoLabel      string
+	// window is the window chosen for axes given by name alone.
+	window *study.Window
 }
 
 func newMapFlagSet(f *mapFlags) *pflag.FlagSet {
@@ -111,7 +113,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if f.workers < 0 {
 		return userErr("--workers %d: must be 0 (all cores) or more", f.workers)
 	}
-	sc, err := resolveScenario(&f, fs)
+	sc, err := resolveScenario(ctx, &f, fs)
 	if err != nil {
 		return err
 	}
@@ -170,7 +172,20 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 		"output.note":  func(w io.Writer) error { return writeNote(w, res, sc, noteLink(sc.Output)) },
 		"save":         func(w io.Writer) error { return scenario.EncodeFile(w, sc, f.save) },
 	}
-	for _, key := range []string{"output.image", "output.data", "output.csv", "output.note", "save"} {
+	if err := writeAll(ctx, plan, outputs, writers, []string{"output.image", "output.data", "output.csv", "output.note", "save"}); err != nil {
+		return err
+	}
+	if !f.quiet {
+		printSummary(stdout, res, sc, f, elapsed)
+	}
+	return nil
+}
+
+// writeAll writes the planned outputs, in the order of keys, each with
+// its writer, and commits the plan: every file appears at once, or none
+// if the run is interrupted or a writer fails.
+func writeAll(ctx context.Context, plan *safefile.Plan, outputs map[string]*safefile.Output, writers map[string]func(io.Writer) error, keys []string) error {
+	for _, key := range keys {
 		if o := outputs[key]; o != nil {
 			if err := o.Write(ctx, writers[key]); err != nil {
 				return err
@@ -180,13 +195,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 	if err := ctx.Err(); err != nil {
 		return err
 	}
-	if err := plan.Commit(); err != nil {
-		return err
-	}
-	if !f.quiet {
-		printSummary(stdout, res, sc, f, elapsed)
-	}
-	return nil
+	return plan.Commit()
 }
 
 // noteLink is the image as a note beside it links it, or "" when there is
@@ -204,7 +213,7 @@ func noteLink(o scenario.Output) string {
 
 // resolveScenario merges the built-in demo, a scenario file and the flags
 // (flags win) into one validated scenario with its paths resolved.
-func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) {
+func resolveScenario(ctx context.Context, f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) {
 	sc := scenario.Default()
 	given := fs.Changed
 	if f.scenario != "" {
@@ -239,6 +248,13 @@ func resolveScenario(f *mapFlags, fs *pflag.FlagSet) (scenario.Scenario, error) 
 	}
 	sc.Override(fromFlags, given)
 	defaultAxes(&sc)
+	if autoX, autoY := f.autoAxes(given); autoX || autoY {
+		w := study.Window{}
+		if sc, w, err = study.ChooseMapWindow(ctx, sc, autoX, autoY, study.Options{Workers: f.workers}); err != nil {
+			return sc, err
+		}
+		f.window = &w
+	}
 	if err := sc.ResolvePaths(f.allowOutside); err != nil {
 		return sc, err
 	}

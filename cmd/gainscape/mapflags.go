@@ -43,13 +43,14 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 		}
 	}
 	s.Loop.TimeUnit, s.Loop.Sample, s.Loop.Integral, s.Loop.Prewarp, s.Loop.Pade = f.timeUnit, f.sample, f.integral, f.prewarp, f.pade
+	// An axis given by name alone has its range chosen (autoAxes).
 	if given("x") {
-		if s.Axes.X, err = spec.ParseAxis(f.x); err != nil {
+		if s.Axes.X, _, err = spec.ParseAxisOrName(f.x); err != nil {
 			return s, userErr("--x: %v", err)
 		}
 	}
 	if given("y") {
-		if s.Axes.Y, err = spec.ParseAxis(f.y); err != nil {
+		if s.Axes.Y, _, err = spec.ParseAxisOrName(f.y); err != nil {
 			return s, userErr("--y: %v", err)
 		}
 	}
@@ -89,6 +90,12 @@ func (f mapFlags) toScenario(given func(string) bool) (scenario.Scenario, error)
 		return s, err
 	}
 	return s, nil
+}
+
+// autoAxes reports which axes the flags give by name alone, for the
+// window rule to choose their ranges.
+func (f mapFlags) autoAxes(given func(string) bool) (x, y bool) {
+	return given("x") && !strings.Contains(f.x, "="), given("y") && !strings.Contains(f.y, "=")
 }
 
 // numberList reads "0.2, 0.5" (or "none" or "" for no values).

@@ -63,10 +63,13 @@ Dead time (a plant with one factor exp(-L*s)):
                         --plant "2*exp(-1.5*s)/((4*s+1)*(s+1))" --pade 3
 Window:
   --x NAME=MIN:MAX    horizontal axis (default: the controller's first
-                      parameter, 0:10)
-                        --x kp=0:20
-  --y NAME=MIN:MAX    vertical axis (default: its second parameter, 0:5)
-                        --y ki=0:8
+                      parameter, 0:10); NAME alone has its range chosen to
+                      hold the whole stable region (the rule is printed;
+                      see "gainscape help compare")
+                        --x kp=0:20  or  --x kp
+  --y NAME=MIN:MAX    vertical axis (default: its second parameter, 0:5);
+                      NAME alone as for --x
+                        --y ki=0:8  or  --y ki
   --grid NXxNY        nodes per axis, 2…4000 each (default 300x225)
                         --grid 400x300
   --workers N         goroutines (default: all cores); the map does not

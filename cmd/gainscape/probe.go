@@ -62,6 +62,12 @@ Flags:
                       (0, the default: chosen from the frequencies that
                       matter at the point)
                         --pade 3
+  --response FILE     the closed-loop responses to a unit setpoint step and a
+                      unit load step at the plant input, drawn to FILE (.png,
+                      .svg or .pdf); their figures (overshoot, settling time,
+                      IAE and IE of the load step, …) join the text and the
+                      JSON (field response)
+                        --response steps.png
 
 Examples:
   gainscape probe --plant "1/(s+1)^3" --ctrl pid --set kp=2,ki=0.8,kd=0.3
@@ -73,10 +79,11 @@ Examples:
 
 type probeFlags struct {
 	loopFlags
-	x, y string
-	vary string
-	json bool
-	pade int
+	x, y     string
+	vary     string
+	json     bool
+	pade     int
+	response string
 }
 
 func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
@@ -97,6 +104,7 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	fs.StringVar(&f.vary, "vary", "", "one parameter NAME=MIN:MAX to scan for stable intervals")
 	fs.BoolVar(&f.json, "json", false, "print JSON")
 	fs.IntVar(&f.pade, "pade", 0, "order of the Padé approximant a loop with dead time is compared with (0: chosen)")
+	fs.StringVar(&f.response, "response", "", "figure of the step responses of the design point")
 	if err := parseFlags(fs, args, probeHelp, stdout); err != nil {
 		return err
 	}
@@ -109,6 +117,9 @@ func runProbe(ctx context.Context, args []string, stdout io.Writer) error {
 	}
 	if f.vary != "" {
 		return runVary(ls, f, stdout)
+	}
+	if f.response != "" {
+		return probeWithResponse(ctx, ls, f, stdout)
 	}
 	rep, err := study.Probe(ctx, study.ProbeRequest{Loop: ls, X: f.x, Y: f.y, Pade: f.pade})
 	if err != nil {
@@ -277,6 +288,9 @@ func printRobustness(w io.Writer, rep *study.ProbeReport) {
 	}
 	if pd := r.Pade; pd != nil {
 		fmt.Fprintf(w, "\nPadé cross-check: %s\n", pd.Note)
+	}
+	if rep.Response != nil {
+		printStepFigures(w, rep)
 	}
 	fmt.Fprintln(w)
 	fmt.Fprintln(w, caution)

@@ -31,6 +31,9 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 	x, y := res.X, res.Y
 	fmt.Fprintf(w, "window      %s %g…%g (%d nodes) × %s %g…%g (%d nodes)\n",
 		x.Param, x.Min, x.Max, x.N, y.Param, y.Min, y.Max, y.N)
+	if f.window != nil {
+		fmt.Fprintf(w, "            chosen: %s\n", f.window.Rule)
+	}
 	if st.Stable > 0 {
 		fmt.Fprintf(w, "stable      %.1f%% of the window; stable nodes span %s %.4g…%.4g, %s %.4g…%.4g\n",
 			100*st.StableFraction(), x.Param, st.XMin, st.XMax, y.Param, st.YMin, st.YMax)

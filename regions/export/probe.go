@@ -1,6 +1,9 @@
 package export
 
-import "gainscape/regions/stability"
+import (
+	"gainscape/regions/response"
+	"gainscape/regions/stability"
+)
 
 // Probe is the probe --json document for one design point. Its field
 // names are a stable contract.
@@ -71,8 +74,13 @@ type Probe struct {
 	Ultimate   *Ultimate  `json:"ultimate,omitempty"`
 	// Pade compares the point with its Padé-approximated loop (dead time
 	// only).
-	Pade    *PadeProbe `json:"pade,omitempty"`
-	Caution string     `json:"caution"`
+	Pade *PadeProbe `json:"pade,omitempty"`
+	// Response holds the figures of the step responses (iae_load,
+	// overshoot, settling_time, …) when they were asked for;
+	// ResponseFailed says why there are none.
+	Response       *response.Figures `json:"response,omitempty"`
+	ResponseFailed string            `json:"response_failed,omitempty"`
+	Caution        string            `json:"caution"`
 }
 
 // Number2 is a pair of numbers, each written as null when it is not

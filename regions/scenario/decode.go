@@ -26,16 +26,43 @@ const maxFileSize = 64 << 10
 // file by path, so that ResolvePaths takes its output paths relative to
 // path's folder.
 func Load(path string) (Scenario, error) {
+	f, err := openFile(path)
+	if err != nil {
+		return Scenario{}, err
+	}
+	defer f.Close()
+	return Decode(f, path)
+}
+
+// openFile opens a scenario file, an *Error naming it if it cannot.
+func openFile(path string) (*os.File, error) {
 	f, err := os.Open(path)
 	if err != nil {
 		var pe *fs.PathError
 		if errors.As(err, &pe) {
 			err = pe.Err
 		}
-		return Scenario{}, &Error{File: path, Msg: "cannot be opened: " + err.Error()}
+		return nil, &Error{File: path, Msg: "cannot be opened: " + err.Error()}
 	}
-	defer f.Close()
-	return Decode(f, path)
+	return f, nil
+}
+
+// readText reads the text of a scenario file named name from r and
+// checks it against the bounds of size and nesting before the TOML
+// reader sees it.
+func readText(r io.Reader, name string) ([]byte, error) {
+	data, err := io.ReadAll(io.LimitReader(r, maxFileSize+1))
+	if err != nil {
+		return nil, &Error{File: name, Msg: fmt.Sprintf("cannot be read: %v", err)}
+	}
+	if len(data) > maxFileSize {
+		return nil, &Error{File: name, Msg: fmt.Sprintf("is larger than %d bytes; a scenario file is a short TOML text", maxFileSize)}
+	}
+	if line := nesting(data); line > 0 {
+		return nil, &Error{File: name, Line: line,
+			Msg: fmt.Sprintf("nested deeper than %d levels of arrays, tables and dotted keys; a scenario needs at most 4", MaxNesting)}
+	}
+	return data, nil
 }
 
 // Decode reads a scenario file from r; name is the file name for
@@ -56,16 +83,9 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	fail := func(key, format string, args ...any) (Scenario, error) {
 		return Scenario{}, &Error{File: name, Key: key, Msg: fmt.Sprintf(format, args...)}
 	}
-	data, err := io.ReadAll(io.LimitReader(r, maxFileSize+1))
+	data, err := readText(r, name)
 	if err != nil {
-		return fail("", "cannot be read: %v", err)
-	}
-	if len(data) > maxFileSize {
-		return fail("", "is larger than %d bytes; a scenario file is a short TOML text", maxFileSize)
-	}
-	if line := nesting(data); line > 0 {
-		return Scenario{}, &Error{File: name, Line: line,
-			Msg: fmt.Sprintf("nested deeper than %d levels of arrays, tables and dotted keys; a scenario needs at most 4", MaxNesting)}
+		return Scenario{}, err
 	}
 	var top struct {
 		Schema   toml.Primitive `toml:"schema"`

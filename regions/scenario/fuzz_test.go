@@ -14,6 +14,22 @@ import (
 // run of milliseconds. The hostile files the bounds refuse took minutes.
 const decodeBudget = 2 * time.Second
 
+// checkFuzzError checks that err is made of at most three *Error values
+// naming the file fuzz.toml.
+func checkFuzzError(t *testing.T, err error) {
+	t.Helper()
+	errs := flatten(err)
+	if len(errs) > maxReported {
+		t.Errorf("%d errors joined; want at most %d", len(errs), maxReported)
+	}
+	for _, e := range errs {
+		var se *Error
+		if !errors.As(e, &se) || se.File != "fuzz.toml" || se.Msg == "" {
+			t.Fatalf("error %v (%T) is not an *Error naming the file", e, e)
+		}
+	}
+}
+
 // FuzzDecode checks that Decode never panics or runs long, that every
 // error it returns is made of *Error values naming the file, within
 // three lines, and that a scenario it accepts and Validate passes
@@ -30,16 +46,7 @@ func FuzzDecode(f *testing.F) {
 			t.Errorf("Decode took %v of processor time", end-start)
 		}
 		if err != nil {
-			errs := flatten(err)
-			if len(errs) > maxReported {
-				t.Errorf("%d errors joined; want at most %d", len(errs), maxReported)
-			}
-			for _, e := range errs {
-				var se *Error
-				if !errors.As(e, &se) || se.File != "fuzz.toml" || se.Msg == "" {
-					t.Fatalf("error %v (%T) is not an *Error naming the file", e, e)
-				}
-			}
+			checkFuzzError(t, err)
 			return
 		}
 		if s.Validate() != nil {

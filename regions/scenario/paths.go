@@ -1,6 +1,7 @@
 package scenario
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"slices"
@@ -80,19 +81,29 @@ func (o *Output) outputPath(key string) *string {
 // checked against the file, and before the outputs are checked and
 // written.
 func (s *Scenario) ResolvePaths(allowOutside bool) error {
-	var errs []error
 	resolved := s.Output
-	for _, key := range outputKeys {
-		at, ok := s.Origins.origin(key)
-		p := resolved.outputPath(key)
+	if err := resolveOutputs(s.Origins, outputKeys, resolved.outputPath, allowOutside); err != nil {
+		return err
+	}
+	s.Output = resolved
+	return nil
+}
+
+// resolveOutputs resolves the output paths of keys, which path gives, as
+// ResolvePaths describes; on an error it may have changed some.
+func resolveOutputs(origins Origins, keys []string, path func(key string) *string, allowOutside bool) error {
+	var errs []error
+	for _, key := range keys {
+		at, ok := origins.origin(key)
+		p := path(key)
 		if !ok || at.File == "" || at.Flag != "" || *p == "" || *p == "-" {
 			continue
 		}
 		dir := filepath.Dir(at.File)
 		if !allowOutside {
-			if err := inside(dir, *p); err != "" {
-				errs = append(errs, s.Errorf(key, "%s %s; a scenario writes only inside its own folder unless --%s is given",
-					quoteShort(*p), err, OutsidePathsFlag))
+			if why := inside(dir, *p); why != "" {
+				errs = append(errs, &Error{File: at.File, Line: at.Line, Key: key, Msg: fmt.Sprintf("%s %s; a scenario writes only inside its own folder unless --%s is given",
+					quoteShort(*p), why, OutsidePathsFlag)})
 				continue
 			}
 		}
@@ -101,9 +112,8 @@ func (s *Scenario) ResolvePaths(allowOutside bool) error {
 		}
 	}
 	if len(errs) > 0 {
-		return joinReported(s.Origins[""].File, errs)
+		return joinReported(origins[""].File, errs)
 	}
-	s.Output = resolved
 	return nil
 }
 

@@ -174,20 +174,26 @@ func (o Output) validate(v *validator) {
 	} {
 		v.path(p.key, p.val, p.kind, p.exts)
 	}
-	v.text("output.title", o.Title)
-	if n := utf8.RuneCountInString(o.Title); n > MaxTitleRunes {
-		v.add("output.title", "%s has %d characters; a title takes at most %d", quoteShort(o.Title), n, MaxTitleRunes)
+	v.looks(o.Title, o.WidthCm, o.HeightCm, o.DPI, false)
+}
+
+// looks checks an image's title, size and resolution; with zeroSize, a
+// size of 0 (the figure's natural size) is allowed.
+func (v *validator) looks(title string, widthCm, heightCm float64, dpi int, zeroSize bool) {
+	v.text("output.title", title)
+	if n := utf8.RuneCountInString(title); n > MaxTitleRunes {
+		v.add("output.title", "%s has %d characters; a title takes at most %d", quoteShort(title), n, MaxTitleRunes)
 	}
 	for _, d := range []struct {
 		key string
 		cm  float64
-	}{{"output.width_cm", o.WidthCm}, {"output.height_cm", o.HeightCm}} {
-		if !(d.cm >= MinSizeCm && d.cm <= MaxSizeCm) {
+	}{{"output.width_cm", widthCm}, {"output.height_cm", heightCm}} {
+		if !(d.cm >= MinSizeCm && d.cm <= MaxSizeCm) && !(zeroSize && d.cm == 0) {
 			v.add(d.key, "%s cm is outside %d to %d cm", formatNumber(d.cm), MinSizeCm, MaxSizeCm)
 		}
 	}
-	if o.DPI < MinDPI || o.DPI > MaxDPI {
-		v.add("output.dpi", "%d dots per inch is outside %d to %d", o.DPI, MinDPI, MaxDPI)
+	if dpi < MinDPI || dpi > MaxDPI {
+		v.add("output.dpi", "%d dots per inch is outside %d to %d", dpi, MinDPI, MaxDPI)
 	}
 }
 

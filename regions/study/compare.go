@@ -3,219 +3,212 @@ package study
 import (
 	"context"
 	"fmt"
-	"math"
-	"slices"
 	"strings"
 
-	"gainscape/regions/boundary"
 	"gainscape/regions/export"
-	"gainscape/regions/expr"
-	"gainscape/regions/grid"
-	"gainscape/regions/intervals"
+	"gainscape/regions/family"
 	"gainscape/regions/loop"
-	"gainscape/regions/plane"
+	"gainscape/regions/response"
+	"gainscape/regions/scenario"
+	"gainscape/regions/spec"
 )
 
-// SampleEdges are the stability edges of a map's window when the same
-// plant and controller structure are sampled every T (0: the continuous
-// loop), to be drawn over the map, with the gain limit along its x axis.
-type SampleEdges struct {
-	T      float64
-	Curves []boundary.Curve
-	// Limits are the stable intervals of the x parameter at y = LimitY:
-	// the window's lowest y, or, where the loop is marginal along that
-	// whole row (a PI controller at ki = 0 has its integrator's root at
-	// z = 1 or s = 0), the row just above it (Above set), which is the
-	// limit of the stable region as y falls to the lowest y.
-	Limits []intervals.Interval
-	LimitY float64
-	Above  bool
-	// Own marks the map's own loop, listed for its gain limit; its edges
-	// are the map's, so Curves is nil.
-	Own bool
+// MaxPanels is the most panels one comparison draws: three by three, the
+// most a printed page shows readably.
+const MaxPanels = 9
+
+// Default grid of a comparison's panels: each panel is drawn a third of
+// the width of a page or less, so fewer nodes than a map's do.
+const (
+	DefaultCompareColumns = 240
+	DefaultCompareRows    = 180
+)
+
+// LoadCriterion names the load-disturbance criterion of the best-ki
+// search and its source, for tables and notes.
+const (
+	LoadCriterion = "largest integral gain ki with Ms ≤ bound (IE = 1/ki for a unit load step at the plant input)"
+	LoadSource    = "K. J. Åström, H. Panagopoulos, T. Hägglund, \"Design of PI controllers based on non-convex optimization\", Automatica 34(5), 1998; K. J. Åström, T. Hägglund, Advanced PID Control, ISA, 2006"
+)
+
+// PanelSpec is one panel of a comparison: a loop in the plane of two of
+// its parameters, the others fixed. An axis marked Auto has its range
+// chosen by ChooseWindow; an axis with no Param is the structure's first
+// (X) or second (Y) parameter, its range chosen.
+type PanelSpec struct {
+	Loop         LoopSpec
+	X, Y         spec.Axis
+	AutoX, AutoY bool
+	// PlantLabel names the plant when panels have several, such as
+	// "worn".
+	PlantLabel string
 }
 
-// Label names the set in legends and summaries: "T = 0.2 s" or
-// "continuous".
-func (e SampleEdges) Label(u Units) string {
-	if e.T == 0 {
-		return "continuous"
-	}
-	return fmt.Sprintf("T = %g %s", e.T, u.TimeLabel())
+// CompareRequest is a comparison: the panels and what every panel
+// computes and draws.
+type CompareRequest struct {
+	Panels []PanelSpec
+	// Columns and Rows are each panel's grid; 0 takes the defaults.
+	Columns, Rows int
+	// MsBound is the Ms limit of the searches; 0 takes 1.4.
+	MsBound float64
+	// MsLevels are the Ms iso-lines drawn; Decay shades the stable region
+	// by decay rate.
+	MsLevels []float64
+	Decay    bool
+	// KdRange, when set, is the range of the search for the best-ki
+	// design over kd; nil takes [0, 2·(the kd scale)] (see KdScaleRule).
+	KdRange *[2]float64
 }
 
-// LimitText says where the stable range along x ends, for summaries:
-// "kp < 2.392 (a pair crosses at ω = 1.324 rad/s)".
-func (e SampleEdges) LimitText(x string, u Units) string {
-	if len(e.Limits) == 0 {
-		return "no stable " + x + " in the window"
+// Comparison is everything computed for a comparison.
+type Comparison struct {
+	Panels []*PanelResult
+	// Bound is the Ms limit used; BoundDefault is set when it is the
+	// default.
+	Bound        float64
+	BoundDefault bool
+	// ResponseWindow is the duration shared by the step responses.
+	ResponseWindow float64
+	Units          Units
+}
+
+// PanelResult is one panel computed.
+type PanelResult struct {
+	Map *MapResult
+	// Label titles the panel; PlantLabel is the plant's label, if any.
+	Label, PlantLabel string
+	Sample            float64
+	Window            Window
+	Table             export.CompareTable
+	// Response holds the step responses of the best-ki design; nil with
+	// ResponseFailed saying why.
+	Response       *response.Result
+	ResponseFailed string
+	// OverKdRule says how the range of the search over kd was chosen;
+	// KdChosen is set when the panel is drawn at the kd the search found,
+	// no kd having been given.
+	OverKdRule string
+	KdChosen   bool
+	// OverKdFrom, when positive, is the panel (counted from 1) whose
+	// search over kd this panel shares: the same loop but for kd.
+	OverKdFrom int
+	overKd     *export.OverGain
+	base       loop.Loop
+}
+
+// Compare computes every panel of the request: its window (panels of one
+// structure that sweep the same two parameters with ranges to choose
+// share one window, the smallest holding each one's chosen window, so
+// that slices and plants read alike), a search for the best-ki design over kd for a structure with
+// kd that is not an axis (the panel is drawn at the kd found when no kd
+// is given), its map with the Ms overlay and the
+// best-ki and best-decay searches under the bound, its row of the table,
+// and the step responses of each best-ki design over one shared window.
+// Errors about the input are *InputError values.
+func Compare(ctx context.Context, req CompareRequest, opt Options) (*Comparison, error) {
+	if len(req.Panels) == 0 {
+		return nil, inputErr("--ctrl", "panel", "", "no panel to draw; give at least one structure")
 	}
-	parts := make([]string, len(e.Limits))
-	for i, iv := range e.Limits {
-		hi := fmt.Sprintf("%.6g", iv.Hi)
-		if iv.HiKind == intervals.Window {
-			hi += " (the window's side)"
-		} else {
-			hi += " (" + limitKindText(iv.HiKind.String(), iv.HiOmega, e.T, u) + ")"
+	if len(req.Panels) > MaxPanels {
+		return nil, inputErr("--ctrl", "panel", "", "%d panels; a comparison draws at most %d", len(req.Panels), MaxPanels)
+	}
+	c := &Comparison{Bound: req.MsBound}
+	if c.Bound == 0 {
+		c.Bound, c.BoundDefault = defaultKiBound, true
+	}
+	cols, rows := req.Columns, req.Rows
+	if cols == 0 || rows == 0 {
+		cols, rows = DefaultCompareColumns, DefaultCompareRows
+	}
+	specs := make([]PanelSpec, len(req.Panels))
+	// Slices of one structure differ in kd only and share one search.
+	searched := map[string]int{}
+	for k, ps := range req.Panels {
+		l, err := ps.Loop.Build()
+		if err != nil {
+			return nil, panelErr(k, err)
 		}
-		parts[i] = fmt.Sprintf("%.6g < %s < %s", iv.Lo, x, hi)
-	}
-	return strings.Join(parts, "; ")
-}
-
-// limitKindText names the crossing at an upper gain limit in a few words.
-func limitKindText(kind string, omega, T float64, u Units) string {
-	switch kind {
-	case "complex":
-		return fmt.Sprintf("a pair crosses at ω = %.4g %s", omega, u.Freq())
-	case "alternating":
-		return "a real root crosses at z = −1"
-	case "real":
-		if T > 0 {
-			return "a real root crosses at z = 1"
-		}
-		return "a real root crosses at s = 0"
-	}
-	return "a root passes through infinity"
-}
-
-// compareSamples maps the window again for every sample time the
-// scenario lists, and for the continuous loop when the map itself is
-// sampled; it returns them by descending T, the continuous loop last, the
-// map's own loop among them with its gain limit only (Own). Each is a map
-// of its own: the same grid, the same bisection of edges.
-func (j *MapJob) compareSamples(ctx context.Context, opt Options) ([]SampleEdges, error) {
-	ts := slices.Clone(j.sc.Overlays.CompareSamples)
-	if len(ts) == 0 {
-		return nil, nil
-	}
-	if j.spec.Plant != "" {
-		if _, err := expr.ParsePlant(j.spec.Plant); err != nil {
-			return nil, inputErr("--compare-samples", "overlays.compare_samples", strings.Join(formatAll(ts), ","),
-				"a comparison needs the plant in s: a plant given in z holds for its own sample time only")
-		}
-	}
-	own := j.setup.Plant.Sample
-	ts = append(ts, 0, own)
-	slices.Sort(ts)
-	slices.Reverse(ts)
-	ts = slices.Compact(ts)
-	var out []SampleEdges
-	for _, T := range ts {
-		if T == own {
-			e := SampleEdges{T: T, Own: true}
-			var err error
-			if e.Limits, e.LimitY, e.Above, err = gainLimit(j.setup.Loop, j.setup); err != nil {
-				return nil, err
+		ps = withDefaultAxes(ps, l)
+		pr := &PanelResult{PlantLabel: ps.PlantLabel, Sample: l.Plant.Sample}
+		if overKd(l, ps) {
+			rng, rule := kdRange(l, req.KdRange)
+			pr.OverKdRule = rule
+			key := searchKey(ps)
+			if first, ok := searched[key]; ok {
+				pr.overKd, pr.OverKdFrom = c.Panels[first].overKd, first+1
+			} else if pr.overKd, err = bestOverKd(ctx, ps, rng, c.Bound, opt); err != nil {
+				return nil, panelErr(k, err)
+			} else {
+				searched[key] = k
 			}
-			out = append(out, e)
-			continue
-		}
-		e, err := j.edgesAt(ctx, T, opt)
-		if err != nil {
-			return nil, err
-		}
-		out = append(out, e)
-	}
-	return out, nil
-}
-
-// edgesAt maps the window with the loop sampled every T (0: continuous).
-func (j *MapJob) edgesAt(ctx context.Context, T float64, opt Options) (SampleEdges, error) {
-	ls := j.spec
-	ls.Sample = T
-	if T == 0 {
-		ls.Integral, ls.Prewarp = "", 0
-	}
-	l, err := ls.Build()
-	if err != nil {
-		return SampleEdges{}, inputErr("--compare-samples", "overlays.compare_samples", strings.Join(formatAll(j.sc.Overlays.CompareSamples), ","), "the loop sampled every %g: %v", T, err)
-	}
-	s := j.setup
-	setup, err := plane.NewSetup(l, s.X, s.Y)
-	if err != nil {
-		return SampleEdges{}, err
-	}
-	set, finish := opt.stage(fmt.Sprintf("comparing T = %g", T), s.Y.N)
-	m, err := grid.Evaluate(ctx, setup, grid.Options{Workers: opt.Workers, Progress: set})
-	finish()
-	if err != nil {
-		return SampleEdges{}, err
-	}
-	curves, err := boundary.Trace(ctx, setup, m, opt.Workers)
-	if err != nil {
-		return SampleEdges{}, err
-	}
-	e := SampleEdges{T: T, Curves: curves}
-	e.Limits, e.LimitY, e.Above, err = gainLimit(l, s)
-	return e, err
-}
-
-// aboveLowest is how far above the window's lowest y, relative to its
-// height, the gain limit is taken where the lowest row is marginal.
-const aboveLowest = 1e-9
-
-// gainLimit returns the stable intervals of the x parameter of s's window
-// at its lowest y, or just above it where there are none there. Just
-// above, the ends move with y by about aboveLowest of the spans, so an
-// end within a millionth of the x span of zero is the limit zero (a PI
-// loop's lower end kp > 0 as ki falls to 0, found at 1e-9).
-func gainLimit(l loop.Loop, s plane.Setup) ([]intervals.Interval, float64, bool, error) {
-	y := s.Y.Min
-	for _, above := range []bool{false, true} {
-		if above {
-			y = s.Y.Min + aboveLowest*s.Y.Span()
-		}
-		ivs, err := intervals.Stable(l.Set(s.YIndex, y), s.XIndex, s.X.Min, s.X.Max)
-		if err != nil {
-			return nil, y, above, err
-		}
-		if len(ivs) == 0 {
-			continue
-		}
-		if above {
-			snap := func(v float64) float64 {
-				if math.Abs(v) <= 1e-6*s.X.Span() {
-					return 0
+			if !hasValue(ps.Loop.Fixed, "kd") && pr.overKd.Failed == "" {
+				// No kd given: the panel shows the structure at its best.
+				ps.Loop.Fixed = withValue(ps.Loop.Fixed, "kd", pr.overKd.Values["kd"])
+				pr.KdChosen = true
+				if l, err = ps.Loop.Build(); err != nil {
+					return nil, panelErr(k, err)
 				}
-				return v
-			}
-			for i := range ivs {
-				ivs[i].Lo, ivs[i].Hi = snap(ivs[i].Lo), snap(ivs[i].Hi)
 			}
 		}
-		return ivs, y, above, nil
+		if pr.Window, err = ChooseWindow(ctx, l, ps.X, ps.Y, ps.AutoX, ps.AutoY, opt); err != nil {
+			return nil, panelErr(k, err)
+		}
+		pr.base = l
+		specs[k] = ps
+		c.Panels = append(c.Panels, pr)
 	}
-	return nil, s.Y.Min, false, nil
+	shareWindows(c.Panels, specs)
+	c.Units = Units{specs[0].Loop.TimeUnit}
+	for k, pr := range c.Panels {
+		if err := c.runPanel(ctx, pr, specs[k], cols, rows, req, opt); err != nil {
+			return nil, panelErr(k, err)
+		}
+	}
+	if err := c.responses(); err != nil {
+		return nil, err
+	}
+	return c, nil
 }
 
-// compareData returns the compared edges as the --data document writes
-// them.
-func compareData(es []SampleEdges) []export.SampleEdges {
-	var out []export.SampleEdges
-	for _, e := range es {
-		d := export.SampleEdges{SampleTime: e.T, Boundaries: boundaries(e.Curves), LimitY: e.LimitY, Above: e.Above, Own: e.Own}
-		for _, iv := range e.Limits {
-			d.Limits = append(d.Limits, export.Interval{Lo: iv.Lo, Hi: iv.Hi, LoKind: endKind(iv.LoKind), HiKind: endKind(iv.HiKind),
-				LoOmega: export.Number(iv.LoOmega), HiOmega: export.Number(iv.HiOmega)})
-		}
-		if d.Limits == nil {
-			d.Limits = []export.Interval{}
-		}
-		out = append(out, d)
+// panelErr places an error in panel k (counted from 1) for messages.
+func panelErr(k int, err error) error {
+	if ie, ok := err.(*InputError); ok {
+		cp := *ie
+		cp.Err = fmt.Errorf("panel %d: %w", k+1, ie.Err)
+		return &cp
 	}
-	return out
+	return fmt.Errorf("panel %d: %w", k+1, err)
 }
 
-// boundaries writes edge curves as the --data document does.
-func boundaries(cs []boundary.Curve) []export.Boundary {
-	out := []export.Boundary{}
-	for _, c := range cs {
-		b := export.Boundary{Kind: c.Kind, Points: make([][3]export.Number, len(c.Points))}
-		for k, p := range c.Points {
-			b.Points[k] = [3]export.Number{export.Number(p.X), export.Number(p.Y), export.Number(p.Omega)}
-		}
-		out = append(out, b)
+// runPanel maps one panel and fills its table.
+func (c *Comparison) runPanel(ctx context.Context, pr *PanelResult, ps PanelSpec, cols, rows int, req CompareRequest, opt Options) error {
+	l := pr.base
+	_, hasKi := family.Index(l.Family, "ki")
+	best := []string{BestDecay}
+	if hasKi == nil {
+		best = []string{BestIntegral, BestDecay}
 	}
-	return out
+	sc := panelScenario(ps.Loop, pr.Window, cols, rows)
+	sc.Overlays = scenario.Overlays{Decay: req.Decay, MsLevels: req.MsLevels, Best: best, MsBound: c.Bound}
+	job, err := NewMap(sc)
+	if err != nil {
+		return err
+	}
+	if pr.Map, err = job.Run(ctx, opt); err != nil {
+		return err
+	}
+	pr.Label = panelLabel(pr.Map, ps)
+	if pr.KdChosen {
+		kd := "kd = " + shortNumber(l.Values[kdIndex(l)])
+		pr.Label = strings.Replace(pr.Label, kd, kd+" (best)", 1)
+	}
+	if pr.KdChosen {
+		if err := takeBetterKi(job, pr, c.Bound); err != nil {
+			return err
+		}
+	}
+	pr.Table = tableOf(pr.Map, l, c.Bound, hasKi == nil)
+	pr.Table.OverKd = pr.overKd
+	return nil
 }

@@ -29,8 +29,7 @@ type MapJob struct {
 // NewMap checks a validated scenario and builds its loop and plane. Errors
 // are *InputError values.
 func NewMap(sc scenario.Scenario) (*MapJob, error) {
-	ls := LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit,
-		Sample: sc.Loop.Sample, Integral: sc.Loop.Integral, Prewarp: sc.Loop.Prewarp}
+	ls := mapLoopSpec(sc)
 	l, err := ls.Build()
 	if err != nil {
 		return nil, err
@@ -42,6 +41,12 @@ func NewMap(sc scenario.Scenario) (*MapJob, error) {
 		return nil, inputErr("--x", "axes.x", axisText(x)+" --y "+axisText(y), "%v", err)
 	}
 	return &MapJob{sc: sc, setup: s, plant: ls.PlantText(), units: Units{ls.TimeUnit}, spec: ls, sampled: sampledOf(l, ls)}, nil
+}
+
+// mapLoopSpec is the loop of a map scenario.
+func mapLoopSpec(sc scenario.Scenario) LoopSpec {
+	return LoopSpec{Plant: sc.Loop.Plant, Num: sc.Loop.Numerator, Den: sc.Loop.Denominator, Controller: sc.Loop.Controller, Fixed: sc.Fixed, TimeUnit: sc.Loop.TimeUnit,
+		Sample: sc.Loop.Sample, Integral: sc.Loop.Integral, Prewarp: sc.Loop.Prewarp}
 }
 
 func axisText(a plane.Axis) string { return fmt.Sprintf("%s=%g:%g", a.Param, a.Min, a.Max) }

@@ -8,6 +8,7 @@ import (
 	"gainscape/regions/export"
 	"gainscape/regions/loop"
 	"gainscape/regions/margins"
+	"gainscape/regions/response"
 	"gainscape/regions/stability"
 )
 
@@ -21,6 +22,8 @@ type ProbeRequest struct {
 	// Pade is the order of the Padé approximant a loop with dead time is
 	// compared with; 0 chooses it (padeProbe).
 	Pade int
+	// Response asks for the step responses of the design point.
+	Response bool
 }
 
 // ProbeReport is everything probe says about one design point.
@@ -36,6 +39,9 @@ type ProbeReport struct {
 	// Sampled describes the sampling of a sampled-data loop; nil for a
 	// continuous-time one.
 	Sampled *Sampling
+	// Response holds the step responses when asked for and the loop is
+	// stable (Doc.ResponseFailed says why not otherwise).
+	Response *response.Result
 }
 
 // Probe computes the report for one design point: the stability test's
@@ -119,7 +125,11 @@ func Probe(ctx context.Context, req ProbeRequest) (*ProbeReport, error) {
 			return nil, err
 		}
 	}
-	return &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units, Sampled: sampling}, nil
+	pr := &ProbeReport{Doc: doc, Formula: l.Family.Formula(), Values: valuesOf(l), Units: units, Sampled: sampling}
+	if req.Response {
+		probeResponse(pr, l)
+	}
+	return pr, nil
 }
 
 // ultimate returns the ultimate gain and period of the proportional-only
