@@ -113,7 +113,7 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 			res.Edges[c.Kind]++
 		}
 	}
-	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
+	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, j.sc.Output.Data != "", opt); err != nil {
 		return nil, err
 	}
 	return res, nil

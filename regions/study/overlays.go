@@ -35,7 +35,9 @@ const defaultKiBound = 1.4
 // iso-lines traced once for both the figure and the data.
 type Overlays struct {
 	XAxis, YAxis plane.Axis
-	// Decay is always computed; Damping and Ms only when asked for.
+	// Each layer is nil unless something draws, searches or writes it:
+	// Decay for its shading, its iso-lines, a search or the data; Damping
+	// and Ms when their iso-lines or a search ask for them.
 	Decay, Damping, Ms *Layer
 	// Marks and Best are the marked and the found design points.
 	Marks, Best []export.Point
@@ -63,8 +65,10 @@ func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
 }
 
 // computeOverlays evaluates the overlays, marks and searches of ov, or
-// returns nil when none is asked for.
-func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, opt Options) (*Overlays, error) {
+// returns nil when none is asked for. The decay rate is computed only
+// where it is shown, searched or, with data, written: the data document
+// promises every overlay grid computed.
+func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, data bool, opt Options) (*Overlays, error) {
 	// Ms is needed for its iso-lines, and by every search: as the ki
 	// search's bound, as the decay search's bound when one is given, and
 	// to break the ties of a flat optimum.
@@ -72,7 +76,8 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	if !ov.Decay && len(ov.DecayLevels) == 0 && len(ov.DampingLevels) == 0 && !wantMs && len(ov.Best) == 0 && len(ov.Marks) == 0 {
 		return nil, nil
 	}
-	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0}
+	needDecay := ov.Decay || len(ov.DecayLevels) > 0 || len(ov.Best) > 0 || data
+	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0, SkipDecay: !needDecay}
 	if wantMs {
 		ev, err := msEvaluator(s)
 		if err != nil {
