@@ -51,8 +51,8 @@ func eigenLoop(s plane.Setup, counts []int8) time.Duration {
 // eigenvalue loop over the nodes of s once, and reports their ratio.
 func benchVersusEigen(b *testing.B, s plane.Setup, args ...string) {
 	dir := b.TempDir()
-	args = append(append([]string{"map", "--workers", "1", "--quiet", "-o", filepath.Join(dir, "map.png"),
-		"--grid", fmt.Sprintf("%dx%d", s.X.N, s.Y.N)}, args...))
+	args = append([]string{"map", "--workers", "1", "--quiet", "-o", filepath.Join(dir, "map.png"),
+		"--grid", fmt.Sprintf("%dx%d", s.X.N, s.Y.N)}, args...)
 	for b.Loop() {
 		var errs strings.Builder
 		if code := run(context.Background(), args, io.Discard, &errs); code != 0 {

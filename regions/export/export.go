@@ -77,6 +77,16 @@ type Summary struct {
 	StableBox *[4]float64 `json:"stable_box"`
 	// OmegaRange is [min, max] of ω along complex-root boundaries, or null.
 	OmegaRange *[2]float64 `json:"omega_range"`
+	// EvaluatedNodes is the number of nodes at which the stability test
+	// ran; the others were filled from cells certified to hold one count.
+	EvaluatedNodes int `json:"evaluated_nodes"`
+	// EdgeMethod says how the edges were found: "frequency sweep" (the
+	// D-partition curves traced in ω) or "bisection" (grid crossings
+	// refined by bisection).
+	EdgeMethod string `json:"edge_method"`
+	// EdgeCheck is the number of grid edges whose change of count the
+	// swept edges do not explain, or null for bisected edges.
+	EdgeCheck *int `json:"edge_check"`
 }
 
 // Extra holds what is drawn over the map.

@@ -25,6 +25,9 @@ const Undecided = stability.Undecided
 type Map struct {
 	XAxis, YAxis plane.Axis
 	RHP, Axis    []int8
+	// Evaluated is the number of nodes at which the stability test ran;
+	// the others were filled from certified cells (EvaluateCertified).
+	Evaluated int
 }
 
 // NewMap returns a map of the given axes with every count zero.
