@@ -5,6 +5,7 @@ import (
 	"encoding/binary"
 	"fmt"
 	"hash/crc32"
+	"image/png"
 	"io"
 	"math"
 	"path/filepath"
@@ -63,10 +64,13 @@ type pngCanvas struct {
 	dpi int
 }
 
-// WriteTo writes the PNG image with its pHYs chunk.
+// WriteTo writes the PNG image with its pHYs chunk. It compresses for
+// speed: a figure of flat fills and lines compresses nearly as well so
+// (a few per cent larger) in about two thirds of the time.
 func (c pngCanvas) WriteTo(w io.Writer) (int64, error) {
 	var buf bytes.Buffer
-	if _, err := c.PngCanvas.WriteTo(&buf); err != nil {
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	if err := enc.Encode(&buf, c.Image()); err != nil {
 		return 0, err
 	}
 	b := buf.Bytes()
