@@ -100,12 +100,28 @@ type rasterCanvas interface {
 	DPI() float64
 }
 
+// raster returns the raster canvas under c, which crops may wrap.
+func raster(c vg.Canvas) (rasterCanvas, bool) {
+	for {
+		switch v := c.(type) {
+		case rasterCanvas:
+			return v, true
+		case draw.Canvas:
+			c = v.Canvas
+		case *draw.Canvas:
+			c = v.Canvas
+		default:
+			return nil, false
+		}
+	}
+}
+
 // Plot paints the cells. On a raster canvas the runs are painted
 // straight into its pixels, their edges rounded to whole pixels as in
 // image, rather than filled as polygons one by one.
 func (f cellFill) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
-	if rc, ok := c.Canvas.(rasterCanvas); ok && f.dpi == 0 {
+	if rc, ok := raster(c.Canvas); ok && f.dpi == 0 {
 		f.paint(rc.Image(), c.Rectangle, rc.DPI(), trX, trY)
 		return
 	}
@@ -185,6 +201,9 @@ func (f cellFill) runsInto(img imagedraw.Image, col, row func(vg.Length) int, tr
 func sameColour(a, b color.Color) bool {
 	if a == nil || b == nil {
 		return a == nil && b == nil
+	}
+	if a == b {
+		return true
 	}
 	r0, g0, b0, a0 := a.RGBA()
 	r1, g1, b1, a1 := b.RGBA()

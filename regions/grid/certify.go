@@ -69,54 +69,54 @@ func EvaluateCertified(ctx context.Context, s plane.Setup, touched []bool, opt O
 	if err := evaluateNodes(ctx, s, m, need, opt); err != nil {
 		return nil, 0, err
 	}
-	regions := joinCells(nx, ny, touched)
-	// label[r] is the count of region r (by its root cell), from its
+	rs := untouchedRuns(nx, ny, touched)
+	// label[r] is the count of the region whose root run is r, from its
 	// evaluated nodes; bad[r] marks a region that cannot be filled.
 	const unset = -2
-	label := make([]int8, len(regions))
-	bad := make([]bool, len(regions))
-	for c := range label {
-		label[c] = unset
+	label := make([]int8, len(rs.runs))
+	bad := make([]bool, len(rs.runs))
+	for r := range label {
+		label[r] = unset
 	}
-	corners := func(c int) [4]int {
-		k := (c/cells)*nx + c%cells
-		return [4]int{k, k + 1, k + nx, k + nx + 1}
-	}
-	for c, t := range touched {
-		if t {
-			continue
-		}
-		r := regions[c]
-		for _, k := range corners(c) {
-			if !need[k] {
-				continue
+	// nodes calls fn for every node on the cells of run r.
+	nodes := func(r int, fn func(k int)) {
+		u := rs.runs[r]
+		for _, row := range [2]int{int(u.j), int(u.j) + 1} {
+			for i := int(u.i0); i <= int(u.i1); i++ {
+				fn(row*nx + i)
 			}
+		}
+	}
+	for r := range rs.runs {
+		root := rs.root[r]
+		nodes(r, func(k int) {
 			switch {
+			case !need[k]:
 			case m.RHP[k] == Undecided || m.Axis[k] != 0:
-				bad[r] = true
-			case label[r] == unset:
-				label[r] = m.RHP[k]
-			case label[r] != m.RHP[k]:
-				bad[r] = true
+				bad[root] = true
+			case label[root] == unset:
+				label[root] = m.RHP[k]
+			case label[root] != m.RHP[k]:
+				bad[root] = true
 			}
-		}
+		})
 	}
-	for c, t := range touched {
-		if r := regions[c]; !t && r == int32(c) && (bad[r] || label[r] == unset) {
-			bad[r] = true
+	for r := range rs.runs {
+		if root := rs.root[r]; int(root) == r && (bad[root] || label[root] == unset) {
+			bad[root] = true
 			conflicts++
 		}
 	}
 	// Every node of a region that cannot be filled is evaluated.
 	redo := make([]bool, nx*ny)
 	any := false
-	for c, t := range touched {
-		if !t && bad[regions[c]] {
-			for _, k := range corners(c) {
+	for r := range rs.runs {
+		if bad[rs.root[r]] {
+			nodes(r, func(k int) {
 				if !need[k] {
 					redo[k], need[k], any = true, true, true
 				}
-			}
+			})
 		}
 	}
 	if any {
@@ -124,15 +124,17 @@ func EvaluateCertified(ctx context.Context, s plane.Setup, touched []bool, opt O
 			return nil, 0, err
 		}
 	}
-	for c, t := range touched {
-		if t || bad[regions[c]] {
+	for r := range rs.runs {
+		root := rs.root[r]
+		if bad[root] {
 			continue
 		}
-		for _, k := range corners(c) {
+		count := label[root]
+		nodes(r, func(k int) {
 			if !need[k] {
-				m.RHP[k], m.Axis[k] = label[regions[c]], 0
+				m.RHP[k], m.Axis[k] = count, 0
 			}
-		}
+		})
 	}
 	for _, v := range need {
 		if v {
@@ -162,48 +164,74 @@ func evaluateNodes(ctx context.Context, s plane.Setup, m *Map, which []bool, opt
 	})
 }
 
-// joinCells returns, for every cell, the root cell of its set of
-// untouched cells joined across shared sides (union–find with path
-// halving); a touched cell is its own root.
-func joinCells(nx, ny int, touched []bool) []int32 {
+// cellRun is a run of untouched cells i0 … i1−1 in cell row j: its nodes
+// are i0 … i1 of node rows j and j+1.
+type cellRun struct{ j, i0, i1 int32 }
+
+// runSet is the untouched cells as runs along the rows, each with the
+// root run of its region: runs are joined where they share a side,
+// which for runs of neighbouring rows means overlapping columns.
+type runSet struct {
+	runs []cellRun
+	root []int32
+}
+
+// untouchedRuns returns the runs of untouched cells and their regions
+// (union–find with path halving; the first run of a region is its root,
+// so roots do not depend on the order of the unions).
+func untouchedRuns(nx, ny int, touched []bool) runSet {
 	cells := nx - 1
-	parent := make([]int32, len(touched))
-	for c := range parent {
-		parent[c] = int32(c)
-	}
-	find := func(c int32) int32 {
-		for parent[c] != c {
-			parent[c] = parent[parent[c]]
-			c = parent[c]
-		}
-		return c
-	}
-	union := func(a, b int) {
-		ra, rb := find(int32(a)), find(int32(b))
-		// The smaller index stays the root, so roots do not depend on
-		// the order of the unions.
-		if ra < rb {
-			parent[rb] = ra
-		} else if rb < ra {
-			parent[ra] = rb
-		}
-	}
+	var rs runSet
+	first := make([]int, ny) // index of the first run of each cell row
 	for j := 0; j < ny-1; j++ {
-		for i := 0; i < cells; i++ {
-			c := j*cells + i
-			if touched[c] {
+		first[j] = len(rs.runs)
+		row := touched[j*cells : (j+1)*cells]
+		for i := 0; i < cells; {
+			if row[i] {
+				i++
 				continue
 			}
-			if i+1 < cells && !touched[c+1] {
-				union(c, c+1)
+			i0 := i
+			for i < cells && !row[i] {
+				i++
 			}
-			if j+1 < ny-1 && !touched[c+cells] {
-				union(c, c+cells)
+			rs.runs = append(rs.runs, cellRun{int32(j), int32(i0), int32(i)})
+		}
+	}
+	first[ny-1] = len(rs.runs)
+	parent := make([]int32, len(rs.runs))
+	for r := range parent {
+		parent[r] = int32(r)
+	}
+	find := func(r int32) int32 {
+		for parent[r] != r {
+			parent[r] = parent[parent[r]]
+			r = parent[r]
+		}
+		return r
+	}
+	for j := 1; j < ny-1; j++ {
+		a, aEnd, b, bEnd := first[j-1], first[j], first[j], first[j+1]
+		for a < aEnd && b < bEnd {
+			ra, rb := rs.runs[a], rs.runs[b]
+			if max(ra.i0, rb.i0) < min(ra.i1, rb.i1) {
+				x, y := find(int32(a)), find(int32(b))
+				if x < y {
+					parent[y] = x
+				} else if y < x {
+					parent[x] = y
+				}
+			}
+			if ra.i1 < rb.i1 {
+				a++
+			} else {
+				b++
 			}
 		}
 	}
-	for c := range parent {
-		parent[c] = find(int32(c))
+	rs.root = parent
+	for r := range parent {
+		parent[r] = find(int32(r))
 	}
-	return parent
+	return rs
 }
