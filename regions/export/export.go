@@ -36,6 +36,7 @@ func (n Number) Valid() bool {
 
 // Region is the --data document. Its fields x, y, rhp and boundaries are
 // the stable contract; the others describe the scenario and may grow.
+// WriteRegion writes it streamed.
 type Region struct {
 	Plant      string `json:"plant"`
 	Controller string `json:"controller"`
@@ -47,11 +48,11 @@ type Region struct {
 	Y        plane.Axis         `json:"y"`
 	// RHP[j][i] is the right-half-plane root count at (x_i, y_j), row 0
 	// at y = min; -1 where the test could not decide.
-	RHP [][]int `json:"rhp"`
+	RHP Counts `json:"rhp"`
 	// Axis[j][i] is the number of roots on the imaginary axis at the same
 	// node (s = 0 and roots gone to infinity included): a node with rhp 0
 	// and axis above 0 is marginal, on an edge, not stable.
-	Axis       [][]int    `json:"axis"`
+	Axis       Counts     `json:"axis"`
 	Boundaries []Boundary `json:"boundaries"`
 	Summary    Summary    `json:"summary"`
 	// Extra holds the overlays and the marked and found points, when any
@@ -107,9 +108,9 @@ type Overlays struct {
 // y = min, null outside the stable region), the levels asked for and the
 // very iso-lines drawn at each.
 type Layer struct {
-	Contours []Contour  `json:"contours"`
-	Levels   []float64  `json:"levels"`
-	Values   [][]Number `json:"values"`
+	Contours []Contour `json:"contours"`
+	Levels   []float64 `json:"levels"`
+	Values   Grid      `json:"values"`
 }
 
 // Contour is the iso-lines of one level.
@@ -136,18 +137,6 @@ type Point struct {
 	// may lie outside).
 	Failed  string `json:"failed,omitempty"`
 	Warning string `json:"warning,omitempty"`
-}
-
-// Rows lays a row-major slice of nx·ny values out as rows, row 0 first.
-func Rows(v []float64, nx, ny int) [][]Number {
-	rows := make([][]Number, ny)
-	for j := range rows {
-		rows[j] = make([]Number, nx)
-		for i := range rows[j] {
-			rows[j][i] = Number(v[j*nx+i])
-		}
-	}
-	return rows
 }
 
 // Write encodes doc as indented JSON.

@@ -136,7 +136,8 @@ func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 func (r *MapResult) Data() *export.Region {
 	doc := &export.Region{
 		Plant: r.Plant, Controller: r.Controller, TimeUnit: r.Units.Key(), Fixed: map[string]float64{},
-		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Axis: r.Map.AxisRows(), Boundaries: []export.Boundary{},
+		X: r.X, Y: r.Y, RHP: export.Counts{NX: r.X.N, NY: r.Y.N, V: r.Map.RHP}, Axis: export.Counts{NX: r.X.N, NY: r.Y.N, V: r.Map.Axis},
+		Boundaries: []export.Boundary{},
 	}
 	for _, v := range r.Fixed {
 		doc.Fixed[v.Name] = v.Value

@@ -243,7 +243,7 @@ func (o *Overlays) data() *export.Extra {
 		if l == nil {
 			return nil
 		}
-		out := &export.Layer{Contours: []export.Contour{}, Levels: l.Levels, Values: export.Rows(l.Values, o.XAxis.N, o.YAxis.N)}
+		out := &export.Layer{Contours: []export.Contour{}, Levels: l.Levels, Values: export.Grid{NX: o.XAxis.N, NY: o.YAxis.N, V: l.Values}}
 		if out.Levels == nil {
 			out.Levels = []float64{}
 		}
