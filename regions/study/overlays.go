@@ -51,6 +51,11 @@ type Layer struct {
 	// of Levels[k].
 	Levels []float64
 	Lines  [][]isoline.Line
+	// Partial reports that Values hold the quantity only at the corners
+	// of the cells its levels cross, and elsewhere a stand-in on the same
+	// side of every level (overlay.MsForLevels): enough for the lines,
+	// not for the data, which never gets a partial layer.
+	Partial bool
 }
 
 func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
@@ -78,13 +83,19 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	}
 	needDecay := ov.Decay || len(ov.DecayLevels) > 0 || len(ov.Best) > 0 || data
 	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0, SkipDecay: !needDecay}
+	// Ms only for its iso-lines (no search, no data): evaluated near the
+	// lines only, every other node certified to lie on its side.
+	var ev *margins.MsEvaluator
+	linesOnly := wantMs && len(ov.Best) == 0 && !data && overlay.LevelsApply(s)
 	if wantMs {
-		ev, err := msEvaluator(s)
-		if err != nil {
+		var err error
+		if ev, err = msEvaluator(s); err != nil {
 			return nil, err
 		}
-		o.Sensitivity = ev.Ms
-		o.Exact = refinedMs
+		if !linesOnly {
+			o.Sensitivity = ev.Ms
+			o.Exact = refinedMs
+		}
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -93,11 +104,19 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	if err != nil {
 		return nil, err
 	}
+	if linesOnly {
+		if g.Ms, _, err = overlay.MsForLevels(ctx, s, m, ev, ov.MsLevels, opt.Workers); err != nil {
+			return nil, err
+		}
+	}
 	res := &Overlays{
 		XAxis: g.XAxis, YAxis: g.YAxis,
 		Decay:   newLayer(g.XAxis, g.YAxis, g.Decay, ov.DecayLevels),
 		Damping: newLayer(g.XAxis, g.YAxis, g.Damping, ov.DampingLevels),
 		Ms:      newLayer(g.XAxis, g.YAxis, g.Ms, ov.MsLevels),
+	}
+	if linesOnly {
+		res.Ms.Partial = true
 	}
 	for k, mk := range ov.Marks {
 		p, err := markPoint(s, mk)
