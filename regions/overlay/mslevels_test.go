@@ -88,7 +88,7 @@ func TestMsForLevelsRandom(t *testing.T) {
 	for trial := 0; trial < 12; trial++ {
 		var poles []complex128
 		for range 2 + rng.IntN(3) {
-			poles = append(poles, complex(-(0.3 + 3*rng.Float64()), 0))
+			poles = append(poles, complex(-(0.3+3*rng.Float64()), 0))
 		}
 		if rng.IntN(2) == 0 {
 			wn, z := 1+3*rng.Float64(), 0.1+0.5*rng.Float64()
