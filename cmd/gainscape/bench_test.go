@@ -23,17 +23,29 @@ import (
 // ratio is reported as the metric "eigen/map".
 
 // eigenLoop counts the right-half-plane roots at every node of s from
-// the eigenvalues, into counts, and returns the time it took.
-func eigenLoop(s plane.Setup, counts []int8) time.Duration {
+// the eigenvalues, into counts, and returns the time it took: with
+// poly.Finder (the companion matrix balanced and reduced by gonum's
+// Dgebal and Dlahqr in reused buffers, the leanest such loop) or, with
+// plain, poly.Roots (gonum's mat.Eigen on a new matrix per node).
+func eigenLoop(s plane.Setup, counts []int8, plain bool) time.Duration {
 	start := time.Now()
 	f := poly.NewFinder(s.Char.Len())
 	p := make(poly.Poly, s.Char.Len())
 	for j := 0; j < s.Y.N; j++ {
 		y := s.Y.At(j)
 		for i := 0; i < s.X.N; i++ {
-			re, _, ok := f.Roots(s.Char.EvalInto(p, s.X.At(i), y))
 			n := int8(-1)
-			if ok {
+			s.Char.EvalInto(p, s.X.At(i), y)
+			if plain {
+				if roots, err := p.Roots(); err == nil {
+					n = 0
+					for _, r := range roots {
+						if real(r) > 0 {
+							n++
+						}
+					}
+				}
+			} else if re, _, ok := f.Roots(p); ok {
 				n = 0
 				for _, r := range re {
 					if r > 0 {
@@ -48,8 +60,9 @@ func eigenLoop(s plane.Setup, counts []int8) time.Duration {
 }
 
 // benchVersusEigen times the command line args b.N times, then the
-// eigenvalue loop over the nodes of s once, and reports their ratio.
-func benchVersusEigen(b *testing.B, s plane.Setup, args ...string) {
+// eigenvalue loop over the nodes of s once, and reports their ratio
+// ("eigen/map"; with plain, also "roots/map" for poly.Roots).
+func benchVersusEigen(b *testing.B, s plane.Setup, plain bool, args ...string) {
 	dir := b.TempDir()
 	args = append([]string{"map", "--workers", "1", "--quiet", "-o", filepath.Join(dir, "map.png"),
 		"--grid", fmt.Sprintf("%dx%d", s.X.N, s.Y.N)}, args...)
@@ -61,9 +74,13 @@ func benchVersusEigen(b *testing.B, s plane.Setup, args ...string) {
 	}
 	perMap := b.Elapsed() / time.Duration(b.N)
 	b.StopTimer()
-	eigen := eigenLoop(s, make([]int8, s.X.N*s.Y.N))
+	eigen := eigenLoop(s, make([]int8, s.X.N*s.Y.N), false)
 	b.ReportMetric(float64(eigen)/float64(perMap), "eigen/map")
 	b.ReportMetric(float64(eigen.Milliseconds()), "eigen-ms")
+	if plain {
+		roots := eigenLoop(s, make([]int8, s.X.N*s.Y.N), true)
+		b.ReportMetric(float64(roots)/float64(perMap), "roots/map")
+	}
 }
 
 // demoSetup is the built-in demo (map.go's demo: an invented pump loop
@@ -80,11 +97,11 @@ func demoSetup(b *testing.B, n int) plane.Setup {
 
 // BenchmarkDemoMap is the default demo map at 800×800 nodes with its Ms
 // iso-lines, image included.
-func BenchmarkDemoMap(b *testing.B) { benchVersusEigen(b, demoSetup(b, 800)) }
+func BenchmarkDemoMap(b *testing.B) { benchVersusEigen(b, demoSetup(b, 800), true) }
 
 // BenchmarkDemoMapNoMs is the same map with the Ms iso-lines off.
 func BenchmarkDemoMapNoMs(b *testing.B) {
-	benchVersusEigen(b, demoSetup(b, 800), "--ms-levels", "none")
+	benchVersusEigen(b, demoSetup(b, 800), true, "--ms-levels", "none")
 }
 
 // degree20 is an invented plant of 19 real lags, 1/∏(1 + s/(0.5+0.25i)),
@@ -110,5 +127,5 @@ func BenchmarkDegree20Map(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	benchVersusEigen(b, s, "--plant", expr, "--ctrl", "pi", "--x", "kp=-1:4", "--y", "ki=-0.2:1", "--ms-levels", "none")
+	benchVersusEigen(b, s, false, "--plant", expr, "--ctrl", "pi", "--x", "kp=-1:4", "--y", "ki=-0.2:1", "--ms-levels", "none")
 }

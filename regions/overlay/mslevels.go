@@ -47,10 +47,11 @@ func LevelsApply(s plane.Setup) bool { return s.Plant.Delay == 0 && s.Plant.Samp
 //     with G as the auxiliary polynomial), counts them (routh.Count,
 //     certified). Since ev never reports more than the supremum of |S|
 //     (margins.MsEvaluator), its value is below L too.
-//   - above: at the grid frequency where ev found |S| largest at the
-//     piece's middle node, |D|² − L²·|C|² is a quadratic in x whose
-//     minimum over the piece is positive: every node of the piece has
-//     |S| ≥ L at a frequency of ev's grid, so ev's value is at least L.
+//   - above: at the grid frequency where ev found |S| largest at the node
+//     last evaluated in the row (or at the piece's middle node),
+//     |D|² − L²·|C|² is a quadratic in x whose minimum over the piece is
+//     positive: every node of the piece has |S| ≥ L at a frequency of
+//     ev's grid, so ev's value is at least L.
 //
 // The certificates are proofs up to the stated rounding allowances, so no
 // node is put on the wrong side of a level; a node that rounding could
@@ -159,6 +160,10 @@ type levelWorker struct {
 	lb, p, work      []float64
 	side             []uint64 // per node of the row: the certified sides
 	known            []uint64 // per node of the row: which sides are known
+	// peak is the grid frequency of the largest |S| at the node last
+	// evaluated in the row, when havePeak.
+	peak     float64
+	havePeak bool
 }
 
 func newLevelWorker(s plane.Setup, ev *margins.MsEvaluator, levels []float64) *levelWorker {
@@ -199,12 +204,13 @@ func (w *levelWorker) row(m *grid.Map, j int, values []float64, exact []bool, ab
 	clear(w.side)
 	clear(w.known)
 	base := j * nx
-	value := func(i int) (float64, float64) {
+	w.havePeak = false
+	value := func(i int) {
 		k := base + i
 		v, peak := w.exact(s.X.At(i), y)
 		values[k], exact[k] = v, true
 		w.side[i], w.known[i] = w.sides(v), ^uint64(0)
-		return v, peak
+		w.peak, w.havePeak = peak, true
 	}
 	for i := 0; i < nx; {
 		if !m.StableAt(base + i) {
@@ -227,7 +233,7 @@ func (w *levelWorker) row(m *grid.Map, j int, values []float64, exact []bool, ab
 }
 
 // certify decides level l on the stable nodes lo … hi of the row.
-func (w *levelWorker) certify(l, lo, hi int, value func(int) (float64, float64), exact []bool) {
+func (w *levelWorker) certify(l, lo, hi int, value func(int), exact []bool) {
 	bit := uint64(1) << l
 	for lo <= hi && w.known[lo]&bit != 0 {
 		lo++
@@ -253,19 +259,27 @@ func (w *levelWorker) certify(l, lo, hi int, value func(int) (float64, float64),
 		set(false)
 		return
 	}
-	mid := (lo + hi) / 2
-	v, peak := value(mid)
-	if v >= w.levels[l] && w.aboveAt(l, peak, x0, x1) {
+	// The peak frequency of the node last evaluated in the row, which
+	// moves little from node to node, serves the above certificate.
+	if w.havePeak && w.aboveAt(l, w.peak, x0, x1) {
 		set(true)
 		return
 	}
-	if hi-lo < 2 {
+	mid := (lo + hi) / 2
+	switch {
+	case hi-lo < 2:
 		for i := lo; i <= hi; i++ {
 			if !exact[i] {
 				value(i)
 			}
 		}
 		return
+	case !w.havePeak:
+		value(mid)
+		if w.aboveAt(l, w.peak, x0, x1) {
+			set(true)
+			return
+		}
 	}
 	w.certify(l, lo, mid, value, exact)
 	w.certify(l, mid+1, hi, value, exact)

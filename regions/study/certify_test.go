@@ -162,3 +162,41 @@ func TestIslandOnCoarseGrid(t *testing.T) {
 		t.Fatalf("no arch from (0, 0) back to ki = 0 with its top near ki = 0.61 among %d curves", len(res.Curves))
 	}
 }
+
+// TestDegree20AgainstEigenvalues maps PI on an invented plant of 19 real
+// lags, 1/∏(1 + s/(0.5+0.25i)), i = 0…18 (characteristic degree 20), on
+// 200×150 nodes and checks every third node of every third row against
+// gonum's eigenvalues, but those with a root within 1e-6 of the axis
+// relative to its magnitude.
+func TestDegree20AgainstEigenvalues(t *testing.T) {
+	plant := "1/(1"
+	for i := 0; i < 19; i++ {
+		plant += fmt.Sprintf("*(%g*s+1)", 1/(0.5+0.25*float64(i)))
+	}
+	plant += ")"
+	sc := scenarioOf(plant, "pi", spec.Axis{Param: "kp", Min: -1, Max: 4}, spec.Axis{Param: "ki", Min: -0.2, Max: 1}, 200, 150)
+	job, err := NewMap(sc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := job.Run(context.Background(), Options{Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checked := 0
+	for j := 0; j < res.Y.N; j += 3 {
+		for i := 0; i < res.X.N; i += 3 {
+			want, near := eigenCount(t, job.setup.Char.Eval(res.X.At(i), res.Y.At(j)))
+			if near {
+				continue
+			}
+			checked++
+			if got := res.Map.Count(i, j); got != want {
+				t.Fatalf("node (%g, %g): count %d, eigenvalues %d", res.X.At(i), res.Y.At(j), got, want)
+			}
+		}
+	}
+	if checked < 3300 || res.Stats.Stable == 0 {
+		t.Fatalf("%d nodes checked, %d stable", checked, res.Stats.Stable)
+	}
+}
