@@ -34,10 +34,13 @@ type cellFill struct {
 	dpi    int
 }
 
-// cellLayer is one grid of cells and the colour of each.
+// cellLayer is one grid of cells and the colour of each. When key is
+// set, cells with equal keys have equal colours, and runs are found by
+// comparing keys, the colour being asked for once per run.
 type cellLayer struct {
 	g      plotter.GridXYZ
 	colour func(c, r int) color.Color
+	key    func(c, r int) int
 }
 
 // seamOverlap is about one pixel at the default resolution.
@@ -75,8 +78,13 @@ func (l cellLayer) runs(trX, trY transform, paint func(cellRun)) {
 		for i := 0; i < nc; {
 			col := l.colour(i, r)
 			start := i
-			for i < nc && sameColour(l.colour(i, r), col) {
-				i++
+			if l.key != nil {
+				for k := l.key(i, r); i < nc && l.key(i, r) == k; i++ {
+				}
+			} else {
+				for i < nc && sameColour(l.colour(i, r), col) {
+					i++
+				}
 			}
 			if col == nil {
 				continue
