@@ -268,8 +268,21 @@ func (w *levelWorker) certify(l, lo, hi int, value func(int), exact []bool) {
 	mid := (lo + hi) / 2
 	switch {
 	case hi-lo < 2:
+		// Each node on its own; one that neither certificate decides is
+		// evaluated. The corners of crossed cells are evaluated later
+		// anyway, so a node decided here costs nothing it would not.
 		for i := lo; i <= hi; i++ {
-			if !exact[i] {
+			if exact[i] || w.known[i]&bit != 0 {
+				continue
+			}
+			x := w.s.X.At(i)
+			switch {
+			case w.below(l, x, x):
+				w.known[i] |= bit
+			case w.havePeak && w.aboveAt(l, w.peak, x, x):
+				w.known[i] |= bit
+				w.side[i] |= bit
+			default:
 				value(i)
 			}
 		}
