@@ -162,8 +162,8 @@ type levelWorker struct {
 	known            []uint64 // per node of the row: which sides are known
 	// peak is the grid frequency of the largest |S| at the node last
 	// evaluated in the row, when havePeak.
-	peak     float64
-	havePeak bool
+	peak, lastValue float64
+	havePeak        bool
 }
 
 func newLevelWorker(s plane.Setup, ev *margins.MsEvaluator, levels []float64) *levelWorker {
@@ -210,7 +210,7 @@ func (w *levelWorker) row(m *grid.Map, j int, values []float64, exact []bool, ab
 		v, peak := w.exact(s.X.At(i), y)
 		values[k], exact[k] = v, true
 		w.side[i], w.known[i] = w.sides(v), ^uint64(0)
-		w.peak, w.havePeak = peak, true
+		w.peak, w.lastValue, w.havePeak = peak, v, true
 	}
 	for i := 0; i < nx; {
 		if !m.StableAt(base + i) {
@@ -255,14 +255,7 @@ func (w *levelWorker) certify(l, lo, hi int, value func(int), exact []bool) {
 		}
 	}
 	x0, x1 := w.s.X.At(lo), w.s.X.At(hi)
-	if w.below(l, x0, x1) {
-		set(false)
-		return
-	}
-	// The peak frequency of the node last evaluated in the row, which
-	// moves little from node to node, serves the above certificate.
-	if w.havePeak && w.aboveAt(l, w.peak, x0, x1) {
-		set(true)
+	if w.decide(l, x0, x1, set) {
 		return
 	}
 	mid := (lo + hi) / 2
@@ -276,13 +269,13 @@ func (w *levelWorker) certify(l, lo, hi int, value func(int), exact []bool) {
 				continue
 			}
 			x := w.s.X.At(i)
-			switch {
-			case w.below(l, x, x):
+			one := func(a bool) {
 				w.known[i] |= bit
-			case w.havePeak && w.aboveAt(l, w.peak, x, x):
-				w.known[i] |= bit
-				w.side[i] |= bit
-			default:
+				if a {
+					w.side[i] |= bit
+				}
+			}
+			if !w.decide(l, x, x, one) {
 				value(i)
 			}
 		}
@@ -296,6 +289,35 @@ func (w *levelWorker) certify(l, lo, hi int, value func(int), exact []bool) {
 	}
 	w.certify(l, lo, mid, value, exact)
 	w.certify(l, mid+1, hi, value, exact)
+}
+
+// decide tries both certificates on [x0, x1] for level l and calls set
+// with the side when one holds. The peak frequency of the node last
+// evaluated in the row, which moves little from node to node, serves the
+// above certificate, and the side of that node says which certificate to
+// try first (the cheaper above one needs no sign array).
+func (w *levelWorker) decide(l int, x0, x1 float64, set func(above bool)) bool {
+	tryAbove := func() bool { return w.havePeak && w.aboveAt(l, w.peak, x0, x1) }
+	if w.havePeak && w.lastValue >= w.levels[l] {
+		if tryAbove() {
+			set(true)
+			return true
+		}
+		if w.below(l, x0, x1) {
+			set(false)
+			return true
+		}
+		return false
+	}
+	if w.below(l, x0, x1) {
+		set(false)
+		return true
+	}
+	if tryAbove() {
+		set(true)
+		return true
+	}
+	return false
 }
 
 // formRow writes the row's D0, D1, C0, C1 and the u-polynomials of their
