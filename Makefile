@@ -25,8 +25,13 @@ examples: build
 		esac; \
 	done
 
+# Every benchmark, each comparing methods within one run; the command's
+# end-to-end benchmarks (the demo at 800×800, a degree-20 map) report
+# their ratio to a per-node eigenvalue loop over the same nodes as
+# "eigen/map".
 bench:
 	$(GO) test -run XXX -bench . -benchtime 2s ./regions/...
+	$(GO) test -run XXX -bench . -benchtime 2s ./cmd/gainscape/
 
 # Longer fuzz runs than the few seconds CI gives each target.
 fuzz:

@@ -34,10 +34,13 @@ type cellFill struct {
 	dpi    int
 }
 
-// cellLayer is one grid of cells and the colour of each.
+// cellLayer is one grid of cells and the colour of each. When key is
+// set, cells with equal keys have equal colours, and runs are found by
+// comparing keys, the colour being asked for once per run.
 type cellLayer struct {
 	g      plotter.GridXYZ
 	colour func(c, r int) color.Color
+	key    func(c, r int) int
 }
 
 // seamOverlap is about one pixel at the default resolution.
@@ -75,8 +78,13 @@ func (l cellLayer) runs(trX, trY transform, paint func(cellRun)) {
 		for i := 0; i < nc; {
 			col := l.colour(i, r)
 			start := i
-			for i < nc && sameColour(l.colour(i, r), col) {
-				i++
+			if l.key != nil {
+				for k := l.key(i, r); i < nc && l.key(i, r) == k; i++ {
+				}
+			} else {
+				for i < nc && sameColour(l.colour(i, r), col) {
+					i++
+				}
 			}
 			if col == nil {
 				continue
@@ -94,9 +102,37 @@ func (l cellLayer) runs(trX, trY transform, paint func(cellRun)) {
 	}
 }
 
-// Plot paints the cells.
+// rasterCanvas is a canvas that holds its pixels, as vgimg's does.
+type rasterCanvas interface {
+	Image() imagedraw.Image
+	DPI() float64
+}
+
+// raster returns the raster canvas under c, which crops may wrap.
+func raster(c vg.Canvas) (rasterCanvas, bool) {
+	for {
+		switch v := c.(type) {
+		case rasterCanvas:
+			return v, true
+		case draw.Canvas:
+			c = v.Canvas
+		case *draw.Canvas:
+			c = v.Canvas
+		default:
+			return nil, false
+		}
+	}
+}
+
+// Plot paints the cells. On a raster canvas the runs are painted
+// straight into its pixels, their edges rounded to whole pixels as in
+// image, rather than filled as polygons one by one.
 func (f cellFill) Plot(c draw.Canvas, plt *plot.Plot) {
 	trX, trY := plt.Transforms(&c)
+	if rc, ok := raster(c.Canvas); ok && f.dpi == 0 {
+		f.paint(rc.Image(), c.Rectangle, rc.DPI(), trX, trY)
+		return
+	}
 	if f.dpi > 0 {
 		if img := f.image(c.Rectangle, trX, trY); img != nil {
 			c.DrawImage(c.Rectangle, img)
@@ -141,19 +177,41 @@ func (f cellFill) image(area vg.Rectangle, trX, trY transform) image.Image {
 		return max(0, min(h, int(math.Round(float64((area.Max.Y-y)/size.Y)*float64(h)))))
 	}
 	img := image.NewRGBA(image.Rect(0, 0, w, h))
+	f.runsInto(img, col, row, trX, trY)
+	return img
+}
+
+// paint paints the layers into the pixels of a raster canvas of the given
+// resolution, clipped to area (in canvas units, y up; pixel rows count
+// from the top of the image).
+func (f cellFill) paint(img imagedraw.Image, area vg.Rectangle, dpi float64, trX, trY transform) {
+	h := img.Bounds().Dy()
+	dots := func(v vg.Length) int { return int(math.Round(float64(v.Dots(dpi)))) }
+	x0, x1 := dots(area.Min.X), dots(area.Max.X)
+	y0, y1 := h-dots(area.Max.Y), h-dots(area.Min.Y)
+	col := func(x vg.Length) int { return max(x0, min(x1, dots(x))) }
+	row := func(y vg.Length) int { return max(y0, min(y1, h-dots(y))) }
+	f.runsInto(img, col, row, trX, trY)
+}
+
+// runsInto paints every run of every layer into img, with col and row
+// mapping canvas coordinates to pixel columns and rows.
+func (f cellFill) runsInto(img imagedraw.Image, col, row func(vg.Length) int, trX, trY transform) {
 	for _, l := range f.layers {
 		l.runs(trX, trY, func(run cellRun) {
 			r := image.Rect(col(run.rect.Min.X), row(run.rect.Max.Y), col(run.rect.Max.X), row(run.rect.Min.Y))
 			imagedraw.Draw(img, r, image.NewUniform(run.colour), image.Point{}, imagedraw.Over)
 		})
 	}
-	return img
 }
 
 // sameColour reports whether a and b paint alike; nil equals only nil.
 func sameColour(a, b color.Color) bool {
 	if a == nil || b == nil {
 		return a == nil && b == nil
+	}
+	if a == b {
+		return true
 	}
 	r0, g0, b0, a0 := a.RGBA()
 	r1, g1, b1, a1 := b.RGBA()

@@ -180,6 +180,12 @@ func buildPlot(f *Figure, rc regionColours, scale *shadeScale, fillDPI int) (*pl
 				return rc.marginal
 			}
 			return rc.count(m.Count(c, r))
+		}, key: func(c, r int) int {
+			// The count, or one key for every marginal node.
+			if k := r*m.XAxis.N + c; m.RHP[k] != 0 || m.Axis[k] == 0 {
+				return int(m.RHP[k])
+			}
+			return math.MinInt
 		}},
 	}}
 	xe, ye := cellEdges(m.XAxis.N, m.X), cellEdges(m.YAxis.N, m.Y)

@@ -42,18 +42,17 @@ const (
 func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSection {
 	var out []legendSection
 
-	present := map[int]bool{}
+	// present[c+1] for count c: Undecided (−1) first.
+	var present [distinctCounts + 2]bool
+	maxCount := 0
 	for k, c := range f.Map.RHP {
 		if f.Map.ClassAt(k) != stability.ClassMarginal {
-			present[min(int(c), distinctCounts)] = true
+			present[min(int(c), distinctCounts)+1] = true
 		}
-	}
-	maxCount := 0
-	for _, c := range f.Map.RHP {
 		maxCount = max(maxCount, int(c))
 	}
 	regions := legendSection{heading: "Region"}
-	if present[0] {
+	if present[1] {
 		var th plot.Thumbnailer = swatch{fill: rc.stable}
 		if scale != nil {
 			th = gradientSwatch{scale}
@@ -61,7 +60,7 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 		regions.entries = append(regions.entries, legendEntry{"stable", []plot.Thumbnailer{th}})
 	}
 	for k := 1; k <= distinctCounts; k++ {
-		if !present[k] {
+		if !present[k+1] {
 			continue
 		}
 		regions.entries = append(regions.entries, legendEntry{
@@ -76,7 +75,7 @@ func legendSections(f *Figure, rc regionColours, scale *shadeScale) []legendSect
 		}
 		regions.entries = append(regions.entries, legendEntry{text, []plot.Thumbnailer{swatch{fill: rc.marginal}}})
 	}
-	if present[grid.Undecided] {
+	if present[grid.Undecided+1] {
 		regions.entries = append(regions.entries, legendEntry{"undecided", []plot.Thumbnailer{swatch{fill: rc.undecided, hatched: true}}})
 	}
 	out = append(out, regions)

@@ -5,6 +5,8 @@ import (
 	"encoding/binary"
 	"fmt"
 	"hash/crc32"
+	"image"
+	"image/png"
 	"io"
 	"math"
 	"path/filepath"
@@ -69,10 +71,18 @@ type pngCanvas struct {
 	dpi int
 }
 
-// WriteTo writes the PNG image with its pHYs chunk.
+// WriteTo writes the PNG image with its pHYs chunk: an opaque canvas
+// by writeOpaquePNG, any other through image/png, compressed for speed.
 func (c pngCanvas) WriteTo(w io.Writer) (int64, error) {
+	if img, ok := c.Image().(*image.RGBA); ok {
+		cw := &countingWriter{w: w}
+		if done, err := writeOpaquePNG(cw, img, c.dpi); done || err != nil {
+			return cw.n, err
+		}
+	}
 	var buf bytes.Buffer
-	if _, err := c.PngCanvas.WriteTo(&buf); err != nil {
+	enc := png.Encoder{CompressionLevel: png.BestSpeed}
+	if err := enc.Encode(&buf, c.Image()); err != nil {
 		return 0, err
 	}
 	b := buf.Bytes()
@@ -92,6 +102,18 @@ func (c pngCanvas) WriteTo(w io.Writer) (int64, error) {
 	out := append(append(append([]byte(nil), b[:ihdrEnd]...), chunk...), b[ihdrEnd:]...)
 	n, err := w.Write(out)
 	return int64(n), err
+}
+
+// countingWriter counts the bytes written through it.
+type countingWriter struct {
+	w io.Writer
+	n int64
+}
+
+func (c *countingWriter) Write(p []byte) (int, error) {
+	n, err := c.w.Write(p)
+	c.n += int64(n)
+	return n, err
 }
 
 // svgCanvas is an SVG canvas whose embedded images read alike in every

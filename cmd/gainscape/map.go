@@ -167,7 +167,7 @@ func runMap(ctx context.Context, args []string, stdout, stderr io.Writer) error 
 
 	writers := map[string]func(io.Writer) error{
 		"output.image": func(w io.Writer) error { return render.Write(w, format, figureOf(res, sc, f.demoLabel)) },
-		"output.data":  func(w io.Writer) error { return export.Write(w, res.Data()) },
+		"output.data":  func(w io.Writer) error { return export.WriteRegion(w, res.Data()) },
 		"output.csv":   func(w io.Writer) error { return writeCSV(w, res) },
 		"output.note":  func(w io.Writer) error { return writeNote(w, res, sc, noteLink(sc.Output)) },
 		"save":         func(w io.Writer) error { return scenario.EncodeFile(w, sc, f.save) },

@@ -45,7 +45,10 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 	if st.Marginal > 0 {
 		fmt.Fprintf(w, "marginal    %d nodes with a root %s and none %s: on an edge, not stable (drawn violet)\n", st.Marginal, boundaryWhere(res), beyondWhere(res))
 	}
-	fmt.Fprintf(w, "edges       %s\n", edgeCounts(res))
+	fmt.Fprintf(w, "edges       %s, by %s\n", edgeCounts(res), res.EdgeReport.Method)
+	if n := res.EdgeReport.Unexplained; n > 0 {
+		fmt.Fprintf(w, "edge check  %d grid edges where the counts and the swept edges disagree\n", n)
+	}
 	if lo, hi, ok := res.OmegaRange(); ok {
 		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g %s along the complex-pair edges\n", lo, hi, res.Units.Freq())
 	}
@@ -67,7 +70,12 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		}
 	}
 	rate := float64(st.Nodes) / elapsed.Seconds()
-	fmt.Fprintf(w, "nodes       %d evaluated, edges refined and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, elapsed.Round(time.Millisecond), rate)
+	if ev := res.Map.Evaluated; ev < st.Nodes {
+		fmt.Fprintf(w, "nodes       %d, of which %d evaluated (%.1f%%) and the rest filled from cells no edge enters\n", st.Nodes, ev, 100*float64(ev)/float64(st.Nodes))
+		fmt.Fprintf(w, "time        map, edges and overlays in %s (%.3g nodes/s)\n", elapsed.Round(time.Millisecond), rate)
+	} else {
+		fmt.Fprintf(w, "nodes       %d evaluated, edges and overlays computed in %s (%.3g nodes/s)\n", st.Nodes, elapsed.Round(time.Millisecond), rate)
+	}
 	if sc.Output.Image != "-" {
 		fmt.Fprintf(w, "image       %s\n", sc.Output.Image)
 	}

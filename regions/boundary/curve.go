@@ -1,6 +1,9 @@
 // Package boundary finds the edges of the regions of a stability map to
-// full precision and joins them into curves, each point carrying the
-// frequency at which the loop oscillates there.
+// full precision as curves, each point carrying the frequency at which
+// the loop oscillates there: from the D-partition traced in ω
+// (TraceSweep), checked against the map's counts (Footprint.Check), or,
+// where the sweep does not apply, by bisecting the grid edges whose
+// counts differ and joining the crossings (Trace).
 package boundary
 
 import "gainscape/regions/stability"

@@ -85,9 +85,12 @@ func (w window) arcs(q, split conic, omega, tol float64) []arc {
 	var out []arc
 	if q.e != 0 && q.a*q.e == q.b*q.c {
 		// q = (c + e·x)(y + b/e): the vertical line x = −c/e and the
-		// horizontal line y = −b/e.
+		// horizontal line y = −b/e. The gradient of q changes direction
+		// where they cross, and so does the side of fewer roots: each
+		// line is cut there.
 		out = append(out, w.arcs(conic{q.c, q.e, 0, 0}, split, omega, tol)...)
-		return append(out, w.arcs(conic{q.b, 0, q.e, 0}, split, omega, tol)...)
+		out = append(out, w.arcs(conic{q.b, 0, q.e, 0}, split, omega, tol)...)
+		return cutAt(out, -q.c/q.e, -q.b/q.e)
 	}
 	// y(x) = −(a + b·x)/(c + e·x) on each branch, with dy/dx =
 	// (a·e − b·c)/(c + e·x)² of one sign: monotone.
@@ -160,6 +163,31 @@ func (w window) arcs(q, split conic, omega, tol float64) []arc {
 		}
 	}
 	flush(&out, cur)
+	return out
+}
+
+// cutAt cuts every arc of axis-parallel segments that passes through
+// (x, y) between two of its points there.
+func cutAt(arcs []arc, x, y float64) []arc {
+	var out []arc
+	for _, a := range arcs {
+		for k := 0; k+1 < len(a); k++ {
+			p, q := a[k], a[k+1]
+			inside := func(v, lo, hi float64) bool { return v > math.Min(lo, hi) && v < math.Max(lo, hi) }
+			if (p.X == q.X && inside(y, p.Y, q.Y)) || (p.Y == q.Y && inside(x, p.X, q.X)) {
+				cut := Point{p.X, p.Y, p.Omega}
+				if p.X == q.X {
+					cut.Y = y
+				} else {
+					cut.X = x
+				}
+				out = append(out, append(append(arc{}, a[:k+1]...), cut))
+				a = append(arc{cut}, a[k+1:]...)
+				k = -1
+			}
+		}
+		out = append(out, a)
+	}
 	return out
 }
 

@@ -36,6 +36,7 @@ func (n Number) Valid() bool {
 
 // Region is the --data document. Its fields x, y, rhp and boundaries are
 // the stable contract; the others describe the scenario and may grow.
+// WriteRegion writes it streamed.
 type Region struct {
 	Plant      string `json:"plant"`
 	Controller string `json:"controller"`
@@ -55,11 +56,11 @@ type Region struct {
 	Y          plane.Axis `json:"y"`
 	// RHP[j][i] is the right-half-plane root count at (x_i, y_j), row 0
 	// at y = min; -1 where the test could not decide.
-	RHP [][]int `json:"rhp"`
+	RHP Counts `json:"rhp"`
 	// Axis[j][i] is the number of roots on the imaginary axis at the same
 	// node (s = 0 and roots gone to infinity included): a node with rhp 0
 	// and axis above 0 is marginal, on an edge, not stable.
-	Axis       [][]int    `json:"axis"`
+	Axis       Counts     `json:"axis"`
 	Boundaries []Boundary `json:"boundaries"`
 	Summary    Summary    `json:"summary"`
 	// Delay is the loop's dead time (0: none). For a loop with dead time,
@@ -119,6 +120,16 @@ type Summary struct {
 	// type with |lim L(s)| ≥ 1 as s → ∞: infinitely many roots in the right
 	// half plane (or on the axis).
 	NeutralNodes int `json:"neutral_nodes,omitempty"`
+	// EvaluatedNodes is the number of nodes at which the stability test
+	// ran; the others were filled from cells certified to hold one count.
+	EvaluatedNodes int `json:"evaluated_nodes"`
+	// EdgeMethod says how the edges were found: "frequency sweep" (the
+	// D-partition curves traced in ω) or "bisection" (grid crossings
+	// refined by bisection).
+	EdgeMethod string `json:"edge_method"`
+	// EdgeCheck is the number of grid edges whose change of count the
+	// swept edges do not explain, or null for bisected edges.
+	EdgeCheck *int `json:"edge_check"`
 }
 
 // Extra holds what is drawn over the map.
@@ -139,9 +150,9 @@ type Overlays struct {
 // y = min, null outside the stable region), the levels asked for and the
 // very iso-lines drawn at each.
 type Layer struct {
-	Contours []Contour  `json:"contours"`
-	Levels   []float64  `json:"levels"`
-	Values   [][]Number `json:"values"`
+	Contours []Contour `json:"contours"`
+	Levels   []float64 `json:"levels"`
+	Values   Grid      `json:"values"`
 }
 
 // Contour is the iso-lines of one level.
@@ -168,18 +179,6 @@ type Point struct {
 	// may lie outside).
 	Failed  string `json:"failed,omitempty"`
 	Warning string `json:"warning,omitempty"`
-}
-
-// Rows lays a row-major slice of nx·ny values out as rows, row 0 first.
-func Rows(v []float64, nx, ny int) [][]Number {
-	rows := make([][]Number, ny)
-	for j := range rows {
-		rows[j] = make([]Number, nx)
-		for i := range rows[j] {
-			rows[j][i] = Number(v[j*nx+i])
-		}
-	}
-	return rows
 }
 
 // Write encodes doc as indented JSON.

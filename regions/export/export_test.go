@@ -28,13 +28,6 @@ func TestNumberWritesMissingAsNull(t *testing.T) {
 	}
 }
 
-func TestRowsLayout(t *testing.T) {
-	rows := Rows([]float64{1, 2, 3, 4, 5, math.NaN()}, 3, 2)
-	if len(rows) != 2 || len(rows[0]) != 3 || rows[1][0] != 4 || rows[0][2] != 3 || rows[1][2].Valid() {
-		t.Fatalf("rows %v", rows)
-	}
-}
-
 // TestRegionFieldNames pins the names scripts rely on.
 func TestRegionFieldNames(t *testing.T) {
 	doc := &Region{
@@ -42,10 +35,10 @@ func TestRegionFieldNames(t *testing.T) {
 		Extra:      &Extra{Overlays: Overlays{Ms: &Layer{Contours: []Contour{}, Levels: []float64{1.4}}}},
 	}
 	var b bytes.Buffer
-	if err := Write(&b, doc); err != nil {
+	if err := WriteRegion(&b, doc); err != nil {
 		t.Fatal(err)
 	}
-	for _, key := range []string{`"x"`, `"y"`, `"rhp"`, `"boundaries"`, `"kind": "complex"`, `"points"`, `null`,
+	for _, key := range []string{`"x"`, `"y"`, `"rhp"`, `"boundaries"`, `"kind":"complex"`, `"points"`, `null`,
 		`"summary"`, `"stable_box"`, `"omega_range"`, `"extra"`, `"overlays"`, `"ms"`, `"levels"`, `"contours"`, `"marks"`, `"best"`} {
 		if !strings.Contains(b.String(), key) {
 			t.Errorf("document lacks %s:\n%s", key, b.String())

@@ -39,5 +39,6 @@ func Evaluate(ctx context.Context, s plane.Setup, opt Options) (*Map, error) {
 	if err != nil {
 		return nil, err
 	}
+	m.Evaluated = len(m.RHP)
 	return m, nil
 }

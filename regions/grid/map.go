@@ -25,6 +25,9 @@ const Undecided = stability.Undecided
 type Map struct {
 	XAxis, YAxis plane.Axis
 	RHP, Axis    []int8
+	// Evaluated is the number of nodes at which the stability test ran;
+	// the others were filled from certified cells (EvaluateCertified).
+	Evaluated int
 }
 
 // NewMap returns a map of the given axes with every count zero.
@@ -118,29 +121,28 @@ func (s Stats) StableFraction() float64 {
 // Stats counts stable and undecided nodes and finds the stable bounding box.
 func (m *Map) Stats() Stats {
 	s := Stats{Nodes: len(m.RHP)}
-	first := true
+	imin, imax, jmin, jmax := m.XAxis.N, -1, m.YAxis.N, -1
+	nx := m.XAxis.N
 	for j := 0; j < m.YAxis.N; j++ {
-		for i := 0; i < m.XAxis.N; i++ {
-			c := m.Count(i, j)
-			if c > s.MaxRHP {
-				s.MaxRHP = c
-			}
-			switch m.Class(i, j) {
-			case stability.ClassUndecided:
+		rhp, axis := m.RHP[j*nx:(j+1)*nx], m.Axis[j*nx:(j+1)*nx]
+		for i, c := range rhp {
+			switch {
+			case c < 0:
 				s.Undecided++
-			case stability.ClassMarginal:
+			case c > 0:
+				s.MaxRHP = max(s.MaxRHP, int(c))
+			case axis[i] > 0:
 				s.Marginal++
-			case stability.ClassStable:
+			default:
 				s.Stable++
-				x, y := m.XAxis.At(i), m.YAxis.At(j)
-				if first {
-					s.XMin, s.XMax, s.YMin, s.YMax = x, x, y, y
-					first = false
-				}
-				s.XMin, s.XMax = min(s.XMin, x), max(s.XMax, x)
-				s.YMin, s.YMax = min(s.YMin, y), max(s.YMax, y)
+				imin, imax = min(imin, i), max(imax, i)
+				jmin, jmax = min(jmin, j), max(jmax, j)
 			}
 		}
+	}
+	if s.Stable > 0 {
+		x0, x1, y0, y1 := m.XAxis.At(imin), m.XAxis.At(imax), m.YAxis.At(jmin), m.YAxis.At(jmax)
+		s.XMin, s.XMax, s.YMin, s.YMax = min(x0, x1), max(x0, x1), min(y0, y1), max(y0, y1)
 	}
 	return s
 }

@@ -54,8 +54,23 @@ func Trace(x, y plane.Axis, values []float64, level float64) []Line {
 	}
 	z := func(i, j int) float64 { return values[j*x.N+i] }
 	valued := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+	// side[k] is 0 without a value, 1 below the level, 2 at or above it:
+	// a cell is looked at only when its corners are valued and not all on
+	// one side, the only cells a line can cross.
+	side := make([]uint8, len(values))
+	for k, v := range values {
+		switch {
+		case !valued(v):
+		case v >= level:
+			side[k] = 2
+		default:
+			side[k] = 1
+		}
+	}
 	inCell := func(i, j int) bool {
-		return valued(z(i, j)) && valued(z(i+1, j)) && valued(z(i, j+1)) && valued(z(i+1, j+1))
+		k := j*x.N + i
+		a, b, c, d := side[k], side[k+1], side[k+x.N], side[k+x.N+1]
+		return a != 0 && b != 0 && c != 0 && d != 0 && !(a == b && a == c && a == d)
 	}
 	index := map[int]int{} // edge 2·node, or 2·node+1 for the edge above it → crossing
 	var points [][2]float64

@@ -120,6 +120,13 @@ func (e *MsEvaluator) Len() int { return len(e.w) }
 // ω = 0 exactly. It allocates nothing. It panics if num or den has more
 // coefficients than the evaluator was built for.
 func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
+	ms, _ := e.Peak(num, den)
+	return ms
+}
+
+// Peak is Ms with the grid frequency at which |S| was largest on the
+// grid: Ms is at least |S| there, whatever the refinement added.
+func (e *MsEvaluator) Peak(num, den poly.Poly) (ms, w float64) {
 	if len(num) > e.stride || len(den) > e.stride {
 		panic(fmt.Sprintf("margins: Ms called with %d and %d coefficients, evaluator built for %d", len(num), len(den), e.stride))
 	}
@@ -155,7 +162,8 @@ func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
 			best, bi = s2, i
 		}
 	}
-	ms := math.Sqrt(best)
+	ms = math.Sqrt(best)
+	w = e.w[bi]
 	if e.steps > 0 && len(e.w) >= 3 {
 		a, b := e.lw[max(bi-1, 0)], e.lw[min(bi+1, len(e.w)-1)]
 		if v := e.goldenS(num, den, a, b); v > ms {
@@ -178,7 +186,7 @@ func (e *MsEvaluator) Ms(num, den poly.Poly) float64 {
 	if sInf, _ := limitWithDelay(num, den, e.delay); sInf > ms {
 		ms = sInf
 	}
-	return ms
+	return ms, w
 }
 
 // goldenS maximises |S| over ln ω in [a, b] with e.steps golden-section

@@ -34,6 +34,9 @@ type Options struct {
 	Workers int
 	// Damping asks for the smallest damping ratio at every stable node.
 	Damping bool
+	// SkipDecay leaves Grids.Decay nil when nothing needs it (no shading,
+	// no iso-line, no search and no data to write); the searches need it.
+	SkipDecay bool
 	// Sensitivity, if set, is evaluated at every stable node into
 	// Grids.Ms.
 	Sensitivity Sensitivity
@@ -60,7 +63,8 @@ func (o Options) exact() Sensitivity {
 type Grids struct {
 	XAxis, YAxis plane.Axis
 	// Decay is the decay rate σ = −max Re(pole): every closed-loop
-	// transient decays at least as fast as e^(−σt).
+	// transient decays at least as fast as e^(−σt); nil with
+	// Options.SkipDecay.
 	Decay []float64
 	// Damping is the smallest damping ratio min −Re(p)/|p| over the
 	// closed-loop poles p; nil unless Options.Damping.
@@ -90,7 +94,10 @@ func (g *Grids) At(i, j int) int { return j*g.XAxis.N + i }
 func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Grids, error) {
 	checkMap(s, m)
 	n := s.X.N * s.Y.N
-	g := &Grids{XAxis: s.X, YAxis: s.Y, Decay: nanSlice(n)}
+	g := &Grids{XAxis: s.X, YAxis: s.Y}
+	if !opt.SkipDecay || opt.Damping {
+		g.Decay = nanSlice(n)
+	}
 	if opt.Damping {
 		g.Damping = nanSlice(n)
 	}
@@ -106,9 +113,10 @@ func Compute(ctx context.Context, s plane.Setup, m *grid.Map, opt Options) (*Gri
 			}
 			x := s.X.At(i)
 			f := s.Function(e.buf, x, y)
-			if opt.Damping {
+			switch {
+			case opt.Damping:
 				g.Decay[k], g.Damping[k] = e.grader.DecayDamping(f)
-			} else {
+			case g.Decay != nil:
 				g.Decay[k] = e.grader.Decay(f)
 			}
 			if opt.Sensitivity != nil {

@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"gainscape/regions/poly"
+	"gainscape/regions/stability"
 )
 
 // stablePolys returns k random Hurwitz polynomials of degree n.
@@ -59,5 +60,30 @@ func BenchmarkAnalyzeDegree5(b *testing.B) {
 	b.ReportAllocs()
 	for i := 0; b.Loop(); i++ {
 		Analyze(ps[i&255])
+	}
+}
+
+// Degree 20 and 30: at 30 Count hands most random stable polynomials on,
+// and the counter decides them with the inclusion disks; the analysis
+// they would otherwise take is timed beside.
+func BenchmarkCountDegree20(b *testing.B) { benchCount(b, 20) }
+func BenchmarkEigenDegree20(b *testing.B) { benchEigen(b, 20) }
+func BenchmarkEigenDegree30(b *testing.B) { benchEigen(b, 30) }
+func BenchmarkCounterDegree30(b *testing.B) {
+	ps := stablePolys(30, 256)
+	c := Test{}.NewCounter(31)
+	b.ReportAllocs()
+	for i := 0; b.Loop(); i++ {
+		if v := c.Count(stability.Function{P: ps[i&255]}); v.Unstable != 0 {
+			b.Fatal("unstable")
+		}
+	}
+	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "nodes/s")
+}
+func BenchmarkAnalyzeDegree30(b *testing.B) {
+	ps := stablePolys(30, 16)
+	b.ReportAllocs()
+	for i := 0; b.Loop(); i++ {
+		Analyze(ps[i&15])
 	}
 }

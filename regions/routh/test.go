@@ -12,8 +12,9 @@ import (
 // Test is the Routh sign array as a stability.Test, for continuous-time
 // loops without dead time: the characteristic function is the polynomial
 // Function.P and the boundary is the imaginary axis. Counts come from the
-// fast path Count where it certifies the array and from Analyze, with its
-// special cases, where it does not.
+// fast path Count where it certifies the array, from root inclusion
+// disks (Inclusion) where its error bound alone was too wide, and from
+// Analyze, with its special cases, where neither decides.
 type Test struct{}
 
 // Name implements stability.Test.
@@ -21,10 +22,14 @@ func (Test) Name() string { return "Routh sign array" }
 
 // NewCounter implements stability.Test.
 func (Test) NewCounter(n int) stability.Counter {
-	return &counter{work: make([]float64, WorkLen(n))}
+	return &counter{work: make([]float64, WorkLen(n)), size: n}
 }
 
-type counter struct{ work []float64 }
+type counter struct {
+	work []float64
+	size int
+	inc  *Inclusion // made on first need
+}
 
 // Count implements stability.Counter. The regular case allocates nothing.
 func (c *counter) Count(f stability.Function) stability.Verdict {
@@ -37,9 +42,30 @@ func (c *counter) Count(f stability.Function) stability.Verdict {
 	case Decided:
 		return stability.Verdict{Unstable: rhp, Boundary: zeros}
 	case NeedsAnalysis:
+		if v, ok := c.included(p); ok {
+			return v
+		}
 		return Analyze(p).Verdict()
 	}
 	return stability.Verdict{Unstable: stability.Undecided}
+}
+
+// included counts p with the inclusion disks, after taking out its exact
+// roots at s = 0; a vanishing leading coefficient is left to Analyze.
+func (c *counter) included(p poly.Poly) (stability.Verdict, bool) {
+	n := len(p) - 1
+	if n < 1 || p[n] == 0 {
+		return stability.Verdict{}, false
+	}
+	lo := 0
+	for lo < n && p[lo] == 0 {
+		lo++
+	}
+	if c.inc == nil || len(c.inc.z) < len(p) {
+		c.inc = NewInclusion(max(len(p), c.size+1))
+	}
+	rhp, ok := c.inc.Count(p[lo:])
+	return stability.Verdict{Unstable: rhp, Boundary: lo}, ok
 }
 
 // Verdict returns the report's counts as a stability.Verdict.

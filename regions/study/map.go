@@ -94,6 +94,8 @@ type MapResult struct {
 	Stats grid.Stats
 	// Edges counts the edge curves of each kind, of two points or more.
 	Edges map[stability.Kind]int
+	// EdgeReport says how the edges were found and checked.
+	EdgeReport EdgeReport
 	// Overlays is nil when none was asked for.
 	Overlays *Overlays
 	// Units labels frequencies, decay rates and periods.
@@ -121,20 +123,14 @@ type MapResult struct {
 // It returns ctx.Err() if cancelled.
 func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 	s := j.setup
-	set, finish := opt.stage("mapping", s.Y.N)
-	m, err := grid.Evaluate(ctx, s, grid.Options{Workers: opt.Workers, Progress: set})
-	finish()
-	if err != nil {
-		return nil, err
-	}
-	curves, err := boundary.Trace(ctx, s, m, opt.Workers)
+	m, curves, rep, err := mapAndEdges(ctx, s, opt)
 	if err != nil {
 		return nil, err
 	}
 	res := &MapResult{
 		Plant: j.plant, Controller: s.Family.Name(), Formula: s.Family.Formula(),
 		Fixed: valuesOf(s.Loop, s.XIndex, s.YIndex), X: s.X, Y: s.Y,
-		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{}, Units: j.units, Sampled: j.sampled,
+		Map: m, Curves: curves, Stats: m.Stats(), Edges: map[stability.Kind]int{}, EdgeReport: rep, Units: j.units, Sampled: j.sampled,
 	}
 	for _, c := range curves {
 		// A crossing no other joins is a point, not an edge.
@@ -147,7 +143,7 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 			return nil, err
 		}
 	}
-	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, opt); err != nil {
+	if res.Overlays, err = computeOverlays(ctx, s, m, j.sc.Overlays, j.sc.Output.Data != "", opt); err != nil {
 		return nil, err
 	}
 	if res.Compare, err = j.compareSamples(ctx, opt); err != nil {
@@ -156,7 +152,8 @@ func (j *MapJob) Run(ctx context.Context, opt Options) (*MapResult, error) {
 	return res, nil
 }
 
-// OmegaRange returns the smallest and largest ω on complex-root edges.
+// OmegaRange returns the smallest and largest finite ω on complex-root
+// edges.
 func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 	lo, hi = math.Inf(1), math.Inf(-1)
 	for _, c := range r.Curves {
@@ -164,7 +161,7 @@ func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 			continue
 		}
 		for _, p := range c.Points {
-			if !math.IsNaN(p.Omega) {
+			if !math.IsNaN(p.Omega) && !math.IsInf(p.Omega, 0) {
 				lo, hi, ok = math.Min(lo, p.Omega), math.Max(hi, p.Omega), true
 			}
 		}
@@ -176,7 +173,8 @@ func (r *MapResult) OmegaRange() (lo, hi float64, ok bool) {
 func (r *MapResult) Data() *export.Region {
 	doc := &export.Region{
 		Plant: r.Plant, Controller: r.Controller, TimeUnit: r.Units.Key(), Fixed: map[string]float64{},
-		X: r.X, Y: r.Y, RHP: r.Map.Rows(), Axis: r.Map.AxisRows(), Boundaries: []export.Boundary{},
+		X: r.X, Y: r.Y, RHP: export.Counts{NX: r.X.N, NY: r.Y.N, V: r.Map.RHP}, Axis: export.Counts{NX: r.X.N, NY: r.Y.N, V: r.Map.Axis},
+		Boundaries: []export.Boundary{},
 	}
 	for _, v := range r.Fixed {
 		doc.Fixed[v.Name] = v.Value
@@ -192,7 +190,11 @@ func (r *MapResult) Data() *export.Region {
 		}
 	}
 	st := r.Stats
-	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, MarginalNodes: st.Marginal, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction()}
+	doc.Summary = export.Summary{Nodes: st.Nodes, StableNodes: st.Stable, MarginalNodes: st.Marginal, UndecidedNodes: st.Undecided, StableFraction: st.StableFraction(),
+		EvaluatedNodes: r.Map.Evaluated, EdgeMethod: string(r.EdgeReport.Method)}
+	if r.EdgeReport.Method == boundary.Swept {
+		doc.Summary.EdgeCheck = &r.EdgeReport.Unexplained
+	}
 	if st.Stable > 0 {
 		doc.Summary.StableBox = &[4]float64{st.XMin, st.XMax, st.YMin, st.YMax}
 	}

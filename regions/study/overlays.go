@@ -35,7 +35,9 @@ const defaultKiBound = 1.4
 // iso-lines traced once for both the figure and the data.
 type Overlays struct {
 	XAxis, YAxis plane.Axis
-	// Decay is always computed; Damping and Ms only when asked for.
+	// Each layer is nil unless something draws, searches or writes it:
+	// Decay for its shading, its iso-lines, a search or the data; Damping
+	// and Ms when their iso-lines or a search ask for them.
 	Decay, Damping, Ms *Layer
 	// Marks and Best are the marked and the found design points.
 	Marks, Best []export.Point
@@ -49,6 +51,11 @@ type Layer struct {
 	// of Levels[k].
 	Levels []float64
 	Lines  [][]isoline.Line
+	// Partial reports that Values hold the quantity only at the corners
+	// of the cells its levels cross, and elsewhere a stand-in on the same
+	// side of every level (overlay.MsForLevels): enough for the lines,
+	// not for the data, which never gets a partial layer.
+	Partial bool
 }
 
 func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
@@ -63,8 +70,10 @@ func newLayer(x, y plane.Axis, values, levels []float64) *Layer {
 }
 
 // computeOverlays evaluates the overlays, marks and searches of ov, or
-// returns nil when none is asked for.
-func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, opt Options) (*Overlays, error) {
+// returns nil when none is asked for. The decay rate is computed only
+// where it is shown, searched or, with data, written: the data document
+// promises every overlay grid computed.
+func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenario.Overlays, data bool, opt Options) (*Overlays, error) {
 	// Ms is needed for its iso-lines, and by every search: as the ki
 	// search's bound, as the decay search's bound when one is given, and
 	// to break the ties of a flat optimum.
@@ -72,14 +81,24 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	if !ov.Decay && len(ov.DecayLevels) == 0 && len(ov.DampingLevels) == 0 && !wantMs && len(ov.Best) == 0 && len(ov.Marks) == 0 {
 		return nil, nil
 	}
-	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0}
+	needDecay := ov.Decay || len(ov.DecayLevels) > 0 || len(ov.Best) > 0 || data
+	o := overlay.Options{Workers: opt.Workers, Damping: len(ov.DampingLevels) > 0, SkipDecay: !needDecay}
+	// Ms only for its iso-lines (no search, no data): evaluated near the
+	// lines only, every other node certified to lie on its side.
+	var ev *margins.MsEvaluator
+	linesOnly := wantMs && len(ov.Best) == 0 && !data && overlay.LevelsApply(s)
 	if wantMs {
-		ms, err := msOverlay(s)
-		if err != nil {
-			return nil, err
+		var err error
+		if linesOnly {
+			if ev, err = msEvaluator(s); err != nil {
+				return nil, err
+			}
+		} else {
+			if o.Sensitivity, err = msOverlay(s); err != nil {
+				return nil, err
+			}
+			o.Exact = refinedMs(s.Plant.Sample, s.Plant.Delay)
 		}
-		o.Sensitivity = ms
-		o.Exact = refinedMs(s.Plant.Sample, s.Plant.Delay)
 	}
 	set, finish := opt.stage("overlays", s.Y.N)
 	o.Progress = set
@@ -88,11 +107,19 @@ func computeOverlays(ctx context.Context, s plane.Setup, m *grid.Map, ov scenari
 	if err != nil {
 		return nil, err
 	}
+	if linesOnly {
+		if g.Ms, _, err = overlay.MsForLevels(ctx, s, m, ev, ov.MsLevels, opt.Workers); err != nil {
+			return nil, err
+		}
+	}
 	res := &Overlays{
 		XAxis: g.XAxis, YAxis: g.YAxis,
 		Decay:   newLayer(g.XAxis, g.YAxis, g.Decay, ov.DecayLevels),
 		Damping: newLayer(g.XAxis, g.YAxis, g.Damping, ov.DampingLevels),
 		Ms:      newLayer(g.XAxis, g.YAxis, g.Ms, ov.MsLevels),
+	}
+	if linesOnly {
+		res.Ms.Partial = true
 	}
 	for k, mk := range ov.Marks {
 		p, err := markPoint(s, mk)
@@ -249,7 +276,7 @@ func (o *Overlays) data() *export.Extra {
 		if l == nil {
 			return nil
 		}
-		out := &export.Layer{Contours: []export.Contour{}, Levels: l.Levels, Values: export.Rows(l.Values, o.XAxis.N, o.YAxis.N)}
+		out := &export.Layer{Contours: []export.Contour{}, Levels: l.Levels, Values: export.Grid{NX: o.XAxis.N, NY: o.YAxis.N, V: l.Values}}
 		if out.Levels == nil {
 			out.Levels = []float64{}
 		}

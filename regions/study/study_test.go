@@ -65,6 +65,7 @@ func TestMapAgainstHandDerivedEdges(t *testing.T) {
 	sc := scenarioOf("1/(s+1)^3", "pi", spec.Axis{Param: "kp", Min: -2, Max: 8}, spec.Axis{Param: "ki", Min: -1, Max: 3}, 90, 70)
 	res := runMap(t, sc)
 	var complexPts, realPts int
+	realLo, realHi := math.Inf(1), math.Inf(-1)
 	for _, c := range res.Curves {
 		for _, p := range c.Points {
 			switch c.Kind {
@@ -76,6 +77,7 @@ func TestMapAgainstHandDerivedEdges(t *testing.T) {
 				}
 			case stability.Real:
 				realPts++
+				realLo, realHi = math.Min(realLo, p.X), math.Max(realHi, p.X)
 				if math.Abs(p.Y) > 1e-8 || p.Omega != 0 {
 					t.Fatalf("real point (%g, %g), ω %g, is off ki = 0", p.X, p.Y, p.Omega)
 				}
@@ -84,8 +86,9 @@ func TestMapAgainstHandDerivedEdges(t *testing.T) {
 			}
 		}
 	}
-	if complexPts < 40 || realPts < 20 {
-		t.Fatalf("%d complex and %d real points", complexPts, realPts)
+	// The real edge is the straight line ki = 0 across the window.
+	if complexPts < 40 || realPts < 2 || realLo != -2 || realHi != 8 {
+		t.Fatalf("%d complex and %d real points, real edge over kp %g…%g", complexPts, realPts, realLo, realHi)
 	}
 	stable := 0
 	for j := 0; j < res.Y.N; j++ {
@@ -106,7 +109,9 @@ func TestMapAgainstHandDerivedEdges(t *testing.T) {
 	if stable == 0 || res.Stats.Stable < stable || res.Edges[stability.Complex] == 0 {
 		t.Fatalf("stats %+v, edges %v, %d stable by eigenvalues", res.Stats, res.Edges, stable)
 	}
-	if lo, hi, ok := res.OmegaRange(); !ok || lo <= 0 || hi > 2 {
+	// The complex edge starts at ω = 0 on ki = 0 and leaves the window
+	// at kp = 8, ω = √3 (3ω² − 1 = 8).
+	if lo, hi, ok := res.OmegaRange(); !ok || lo < 0 || math.Abs(hi-math.Sqrt(3)) > 1e-9 {
 		t.Fatalf("ω range %g…%g", lo, hi)
 	}
 }
