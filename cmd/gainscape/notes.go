@@ -66,7 +66,7 @@ func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLin
 		fmt.Fprintf(&b, "- Gain limit, %s: stable for %s at %s = %.4g\n", e.Label(res.Units), e.LimitText(x.Param, res.Units), y.Param, e.LimitY)
 	}
 	if lo, hi, ok := res.OmegaRange(); ok {
-		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %.4g to %.4g %s\n", lo, hi, res.Units.Freq())
+		fmt.Fprintf(&b, "- On the complex-pair edges the loop oscillates at ω from %s to %.4g %s\n", lowOmegaText(lo), hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(&b, "- %d nodes could not be decided by the stability test\n", st.Undecided)

@@ -50,7 +50,7 @@ func printSummary(w io.Writer, res *study.MapResult, sc scenario.Scenario, f map
 		fmt.Fprintf(w, "edge check  %d grid edges where the counts and the swept edges disagree\n", n)
 	}
 	if lo, hi, ok := res.OmegaRange(); ok {
-		fmt.Fprintf(w, "oscillation ω from %.4g to %.4g %s along the complex-pair edges\n", lo, hi, res.Units.Freq())
+		fmt.Fprintf(w, "oscillation ω from %s to %.4g %s along the complex-pair edges\n", lowOmegaText(lo), hi, res.Units.Freq())
 	}
 	if st.Undecided > 0 {
 		fmt.Fprintf(w, "undecided   %d nodes where the stability test could not be trusted (drawn hatched)\n", st.Undecided)
@@ -126,4 +126,14 @@ func dirExists(path string) error {
 		return fmt.Errorf("directory %s does not exist", dir)
 	}
 	return nil
+}
+
+// lowOmegaText writes the lowest ω of the complex-pair edges: 0 where such
+// an edge ends on a real-root edge, its pair merging into a double root
+// at s = 0 (z = 1) there.
+func lowOmegaText(lo float64) string {
+	if lo == 0 {
+		return "0 (where a complex-pair edge meets a real-root edge)"
+	}
+	return fmt.Sprintf("%.4g", lo)
 }
