@@ -109,7 +109,7 @@ func BestDecay(s plane.Setup, g *Grids, opt Options, bound float64) (Optimum, er
 
 	pr := newProber(s)
 	value := func(x, y float64) (decay, m float64, ok bool) {
-		decay, _ = pr.decayAndDamping(x, y)
+		decay = pr.decay(x, y)
 		m = pr.ms(opt.Sensitivity, x, y)
 		if math.IsNaN(m) {
 			m = 0

@@ -31,6 +31,12 @@ func (pr *prober) count(x, y float64) int { return pr.counter.Count(pr.function(
 // left half plane and no drop of degree.
 func (pr *prober) stable(x, y float64) bool { return pr.counter.Count(pr.function(x, y)).Stable() }
 
+// decay returns the decay rate at (x, y) by the grader's cheapest exact
+// method (the shifted test, for a rational or delayed loop; it is
+// negative where the loop is unstable), for the searches that need no
+// damping ratio.
+func (pr *prober) decay(x, y float64) float64 { return pr.e.grader.Decay(pr.function(x, y)) }
+
 // decayAndDamping returns the decay rate and smallest damping ratio at
 // (x, y) from the eigenvalues; the decay rate is negative where the loop
 // is unstable, which lets the searches step across the boundary and back.

@@ -132,7 +132,7 @@ func (c *Comparison) responses() error {
 		}
 		d, err := ResponseWindow(l)
 		if err != nil {
-			pr.ResponseFailed = err.Error()
+			pr.ResponseFailed = strings.TrimPrefix(err.Error(), "response: ")
 			continue
 		}
 		loops[k] = &l
@@ -144,7 +144,7 @@ func (c *Comparison) responses() error {
 		}
 		r, err := StepResponse(*loops[k], c.ResponseWindow)
 		if err != nil {
-			pr.ResponseFailed = err.Error()
+			pr.ResponseFailed = strings.TrimPrefix(err.Error(), "response: ")
 			continue
 		}
 		pr.Response = r
