@@ -174,7 +174,7 @@ func TestComparePanels(t *testing.T) {
 			[]string{"PI", "PID, kd = 0, tau = 0.1", "PID, kd = 1, tau = 0.1"}},
 		{"sample times", []string{"--ctrl", "pi", "--slices", "sample=0,0.5"}, []string{"PI", "PI, T = 0.5 s"}},
 		{"two plants", []string{"--plant", "worn=0.5/(s+1)^4", "--ctrl", "pi"}, []string{"PI", "worn: PI"}},
-		{"scoped set", []string{"--ctrl", "pd,lead", "--set", "lead:p=20"}, []string{"PD", "LEAD, p = 20"}},
+		{"scoped set", []string{"--ctrl", "pd,lead", "--set", "lead:p=20"}, []string{"PD", "Lead, p = 20"}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {

@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"gainscape/regions/export"
+	"gainscape/regions/family"
 	"gainscape/regions/study"
 )
 
@@ -27,7 +28,7 @@ func compareTitle(c *study.Comparison, given string) string {
 		if !slices.Contains(plants, g) {
 			plants = append(plants, g)
 		}
-		if name := strings.ToUpper(p.Map.Controller); !slices.Contains(ctrls, name) {
+		if name := family.Title(p.Map.Controller); !slices.Contains(ctrls, name) {
 			ctrls = append(ctrls, name)
 		}
 	}
@@ -106,7 +107,7 @@ func tableRows(c *study.Comparison) []tableRow {
 		r.more = []string{design, num(d.DecayRate), num(d.MinDamping), num(d.Ms), num(t.MinMs), ku, tu, fmt.Sprintf("%.1f%%", 100*t.StableShare)}
 		rows = append(rows, r)
 		if og := t.OverKd; og != nil && !p.KdChosen && p.OverKdFrom == 0 {
-			name := fmt.Sprintf("%d %s over kd %g…%g", k+1, strings.ToUpper(p.Map.Controller), og.Range[0], og.Range[1])
+			name := fmt.Sprintf("%d %s over kd %g…%g", k+1, family.Title(p.Map.Controller), og.Range[0], og.Range[1])
 			row := tableRow{name: name}
 			if og.Failed != "" {
 				row.load = []string{"none: " + og.Failed, "", "", "", "", "", "", ""}

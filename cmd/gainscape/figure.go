@@ -3,11 +3,11 @@ package main
 import (
 	"fmt"
 	"math"
-	"strings"
 
 	"gonum.org/v1/plot/vg"
 
 	"gainscape/regions/export"
+	"gainscape/regions/family"
 	"gainscape/regions/scenario"
 	"gainscape/regions/study"
 	"gainscape/render"
@@ -17,7 +17,7 @@ import (
 func figureOf(res *study.MapResult, sc scenario.Scenario, demoLabel string) render.Figure {
 	title := sc.Output.Title
 	if title == "" {
-		title = fmt.Sprintf("G(s) = %s under %s", res.Plant, strings.ToUpper(res.Controller))
+		title = fmt.Sprintf("G(s) = %s under %s", res.Plant, family.Title(res.Controller))
 		if res.Delay > 0 {
 			title += fmt.Sprintf(" (dead time %g %s)", res.Delay, res.Units.TimeLabel())
 		}

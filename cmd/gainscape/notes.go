@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"gainscape/regions/family"
 	"gainscape/regions/scenario"
 	"gainscape/regions/study"
 )
@@ -37,7 +38,7 @@ func writeCSV(w io.Writer, res *study.MapResult) error {
 func writeNote(w io.Writer, res *study.MapResult, sc scenario.Scenario, imageLink string) error {
 	st := res.Stats
 	x, y := res.X, res.Y
-	name := strings.ToUpper(res.Controller)
+	name := family.Title(res.Controller)
 	var b strings.Builder
 	fmt.Fprintf(&b, "### Stability map: %s in the %s–%s plane\n\n", name, x.Param, y.Param)
 	if imageLink != "" {

@@ -37,3 +37,18 @@ func Names() string {
 	}
 	return strings.Join(n, ", ")
 }
+
+// Title returns a structure's name as titles and tables write it: the
+// letter names in capitals (P, PI, PD, PID), the others capitalised
+// (Lead, Lag, Lead-lag).
+func Title(name string) string {
+	switch name {
+	case "p", "pi", "pd", "pid":
+		return strings.ToUpper(name)
+	case "leadlag":
+		return "Lead-lag"
+	case "":
+		return ""
+	}
+	return strings.ToUpper(name[:1]) + name[1:]
+}

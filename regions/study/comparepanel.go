@@ -99,7 +99,7 @@ func panelScenario(ls LoopSpec, w Window, cols, rows int) scenario.Scenario {
 // panelLabel titles a panel: the plant's label, the structure, its
 // fixed values and a digital controller's sample time.
 func panelLabel(res *MapResult, ps PanelSpec) string {
-	s := strings.ToUpper(res.Controller)
+	s := family.Title(res.Controller)
 	for _, v := range res.Fixed {
 		s += fmt.Sprintf(", %s = %s", v.Name, shortNumber(v.Value))
 	}
