@@ -100,3 +100,19 @@ func TestWindowUnbounded(t *testing.T) {
 		t.Errorf("window %s; the region starts at kp = −1, ki = 0", w.Text())
 	}
 }
+
+// TestWindowEverywhereMarginal: a PID left at ki = 0 has the integrator's
+// root at s = 0 at every point of the kp–kd plane (hand-derived: the
+// characteristic polynomial is s·(D + (kd·s + kp)·N)), so the rule
+// stops at its first window with an input error that says so, rather
+// than growing the window in search of a stable point that cannot exist.
+func TestWindowEverywhereMarginal(t *testing.T) {
+	l, err := LoopSpec{Plant: "1/(s+1)^4", Controller: "pid"}.Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = ChooseWindow(context.Background(), l, spec.Axis{Param: "kp"}, spec.Axis{Param: "kd"}, true, true, Options{})
+	if err == nil || !IsInput(err) || !strings.Contains(err.Error(), "marginal") || !strings.Contains(err.Error(), "ki = 0") {
+		t.Fatalf("error %v; want an input error naming the marginal nodes and ki = 0", err)
+	}
+}

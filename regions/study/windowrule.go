@@ -95,6 +95,13 @@ func (ch *chooser) grow(b box, free [4]bool) (box, [4]bool, box, error) {
 			return b, [4]bool{}, box{}, err
 		}
 		_, any := stableSpan(m)
+		if st := m.Stats(); !any && st.Marginal > 0 {
+			// Marginal nodes and no stable one: a fixed value holds a
+			// root on the boundary; looking farther will not help.
+			return b, [4]bool{}, box{}, inputErr("--x", "axes.x", ch.names[0]+" --y "+ch.names[1],
+				"no stable point in %s %.4g…%.4g × %s %.4g…%.4g, but %d of its %d nodes are marginal, a root on the stability boundary: a fixed value may hold one there at every point (ki = 0 leaves the integrator's root at s = 0: --set ki=… or a structure without it)",
+				ch.names[0], b[0], b[1], ch.names[1], b[2], b[3], st.Marginal, st.Nodes)
+		}
 		t := ch.sidesStable(b, free)
 		if !any && t == ([4]bool{}) {
 			// No stable node yet: look farther on every free side.
@@ -123,7 +130,7 @@ func (ch *chooser) grow(b box, free [4]bool) (box, [4]bool, box, error) {
 		if !moved {
 			if !any {
 				return b, unb, box{}, inputErr("--x", "axes.x", ch.names[0]+" --y "+ch.names[1],
-					"no stable point found in %s %g…%g × %s %g…%g, the farthest the window rule looks; give the window with --x NAME=MIN:MAX --y NAME=MIN:MAX",
+					"no stable point found in %s %.4g…%.4g × %s %.4g…%.4g, the farthest the window rule looks; give the window with --x NAME=MIN:MAX --y NAME=MIN:MAX",
 					ch.names[0], b[0], b[1], ch.names[1], b[2], b[3])
 			}
 			span, _ := stableSpan(m)
