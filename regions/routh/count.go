@@ -165,12 +165,9 @@ func entryBound(ex, absR, ey, absY, er, absX, absRY float64) float64 {
 // (with lo zero) ends the count. Count and FastCount share it, so that
 // they reject exactly the same inputs.
 func prepare(p []float64) (q []float64, lo int, st Status) {
-	n := len(p) - 1
-	if n < 0 {
-		return nil, 0, Undecidable
-	}
 	// One sum tells whether every coefficient is finite (a NaN or an
-	// infinity makes it so) and whether any is non-zero.
+	// infinity makes it so) and whether any is non-zero, p being empty
+	// included.
 	total := 0.0
 	for _, v := range p {
 		total += math.Abs(v)
@@ -178,7 +175,7 @@ func prepare(p []float64) (q []float64, lo int, st Status) {
 	if !(total <= math.MaxFloat64) || total == 0 {
 		return nil, 0, Undecidable
 	}
-	if p[n] == 0 {
+	if p[len(p)-1] == 0 {
 		return nil, 0, NeedsAnalysis
 	}
 	for p[lo] == 0 {

@@ -13,9 +13,9 @@ import (
 // loops without dead time: the characteristic function is the polynomial
 // Function.P and the boundary is the imaginary axis. Counts come from the
 // fast path FastCount (Count's answer, sooner) where it certifies the
-// array, from root inclusion
-// disks (Inclusion) where its error bound alone was too wide, and from
-// Analyze, with its special cases, where neither decides.
+// array, from root inclusion disks (Inclusion) where its error bound
+// alone was too wide, and from Analyze, with its special cases, where
+// neither decides.
 type Test struct{}
 
 // Name implements stability.Test.
