@@ -64,8 +64,8 @@ func benchRoots(b *testing.B, ps []poly.Poly) {
 // FastCount, Count, Count as it was before FastCount (countBefore) and
 // the eigenvalue check on the same polynomials, so that their ratios can
 // be read from one run. Degrees 8, 12 and 16 show where FastCount's
-// bounds per row start and stop paying (fastMin, fastMax); at degree 20
-// it is Count.
+// bounds per row start and stop paying (fastMin, fastMax); at degrees 5
+// and 20 FastCount is Count.
 func BenchmarkFastDegree5(b *testing.B)    { benchFast(b, 5) }
 func BenchmarkCountDegree5(b *testing.B)   { benchCount(b, 5) }
 func BenchmarkBeforeDegree5(b *testing.B)  { benchBefore(b, 5) }

@@ -121,7 +121,9 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 			y, ey := b[j+2], b[j+3]
 			ry := float64(r * y)
 			d := x - ry
-			e := entryBound(ex, absR, ey, math.Abs(y), er, math.Abs(x), math.Abs(ry))
+			// |fl(r·y)| = fl(|r|·|y|): rounding to nearest is symmetric.
+			absY := math.Abs(y)
+			e := entryBound(ex, absR, ey, absY, er, math.Abs(x), float64(absR*absY))
 			if math.Abs(d) <= e {
 				d = 0
 			}

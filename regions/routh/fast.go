@@ -50,10 +50,10 @@ import "math"
 // Speed. Each row of the array waits for the division by the pivot of
 // the row before, so one polynomial takes at least a division, two
 // products and a difference per row, however little the rest costs.
-// Count is at that floor up to degree 7 or so; above it the work per
+// Count is at that floor up to degree 8 or so; above it the work per
 // entry dominates, and FastCount's entry (a product, a difference and
-// one comparison) is about a third of Count's: 10% faster at degree 10,
-// 20 to 30% at 12 to 16. FastCount therefore calls Count at once for
+// one comparison) is about a third of Count's: about 10% faster at
+// degree 10, 15 to 25% at 12 to 16. FastCount therefore calls Count for
 // degrees below fastMin and above fastMax (see BenchmarkFastDegree* in
 // bench_test.go).
 func FastCount(p, work []float64) (rhp, zeroRoots int, st Status) {
@@ -78,7 +78,7 @@ func FastCount(p, work []float64) (rhp, zeroRoots int, st Status) {
 // above fastMax the bounds of random well-separated polynomials fail more
 // often than not.
 const (
-	fastMin = 8
+	fastMin = 9
 	fastMax = 16
 )
 
