@@ -64,8 +64,8 @@ func benchRoots(b *testing.B, ps []poly.Poly) {
 // FastCount, Count, Count as it was before FastCount (countBefore) and
 // the eigenvalue check on the same polynomials, so that their ratios can
 // be read from one run. Degrees 8, 12 and 16 show where FastCount's
-// bounds per row start and stop paying (fastMin, fastMax); at degrees 5
-// and 20 FastCount is Count.
+// bounds per row start and stop paying (fastMin, fastMax); at degrees 5,
+// 8 and 20 FastCount calls Count.
 func BenchmarkFastDegree5(b *testing.B)    { benchFast(b, 5) }
 func BenchmarkCountDegree5(b *testing.B)   { benchCount(b, 5) }
 func BenchmarkBeforeDegree5(b *testing.B)  { benchBefore(b, 5) }
@@ -82,26 +82,39 @@ func BenchmarkFastDegree16(b *testing.B)   { benchFast(b, 16) }
 func BenchmarkCountDegree16(b *testing.B)  { benchCount(b, 16) }
 
 // pidGrid returns the characteristic polynomials of an invented PID loop
-// of pidCharacteristic at 256 nodes of the kp × ki plane, kd = 0.5, ki
-// from 0.05 up so that no node has a root at s = 0.
-func pidGrid(plant poly.Poly) []poly.Poly {
+// of pidCharacteristic at 256 nodes of the kp × ki plane, kd = 0.5, with
+// kp and ki scaled by scale and ki from 0.05·scale up so that no node has
+// a root at s = 0.
+func pidGrid(plant poly.Poly, scale float64) []poly.Poly {
 	ps := make([]poly.Poly, 0, 256)
 	for i := range 16 {
 		for j := range 16 {
-			ps = append(ps, pidCharacteristic(plant, -1+0.5*float64(i), 0.05+0.1*float64(j), 0.5))
+			ps = append(ps, pidCharacteristic(plant, scale*(-1+0.5*float64(i)), scale*(0.05+0.1*float64(j)), 0.5))
 		}
 	}
 	return ps
 }
 
-// The nodes of a map: the invented PID loops of degree 6 and 10.
-func BenchmarkFastPIDDegree6(b *testing.B)    { benchSignArray(b, pidGrid(plantFour), FastCount) }
-func BenchmarkCountPIDDegree6(b *testing.B)   { benchSignArray(b, pidGrid(plantFour), Count) }
-func BenchmarkEigenPIDDegree6(b *testing.B)   { benchRoots(b, pidGrid(plantFour)) }
-func BenchmarkFastPIDDegree10(b *testing.B)   { benchSignArray(b, pidGrid(plantEight), FastCount) }
-func BenchmarkCountPIDDegree10(b *testing.B)  { benchSignArray(b, pidGrid(plantEight), Count) }
-func BenchmarkBeforePIDDegree10(b *testing.B) { benchSignArray(b, pidGrid(plantEight), countBefore) }
-func BenchmarkEigenPIDDegree10(b *testing.B)  { benchRoots(b, pidGrid(plantEight)) }
+// The nodes of a map: the invented PID loops of degree 6 and 10, and the
+// second with kp and ki scaled by 1e-12, where the coefficients spread
+// too far for FastCount's bounds per row and it goes to Count.
+func BenchmarkFastPIDDegree6(b *testing.B)  { benchSignArray(b, pidGrid(plantFour, 1), FastCount) }
+func BenchmarkCountPIDDegree6(b *testing.B) { benchSignArray(b, pidGrid(plantFour, 1), Count) }
+func BenchmarkEigenPIDDegree6(b *testing.B) { benchRoots(b, pidGrid(plantFour, 1)) }
+func BenchmarkFastPIDDegree10(b *testing.B) { benchSignArray(b, pidGrid(plantEight, 1), FastCount) }
+func BenchmarkCountPIDDegree10(b *testing.B) {
+	benchSignArray(b, pidGrid(plantEight, 1), Count)
+}
+func BenchmarkBeforePIDDegree10(b *testing.B) {
+	benchSignArray(b, pidGrid(plantEight, 1), countBefore)
+}
+func BenchmarkEigenPIDDegree10(b *testing.B) { benchRoots(b, pidGrid(plantEight, 1)) }
+func BenchmarkFastPIDDegree10TinyGains(b *testing.B) {
+	benchSignArray(b, pidGrid(plantEight, 1e-12), FastCount)
+}
+func BenchmarkCountPIDDegree10TinyGains(b *testing.B) {
+	benchSignArray(b, pidGrid(plantEight, 1e-12), Count)
+}
 
 // Degree 20 and 30: at 30 Count hands most random stable polynomials on,
 // and the counter decides them with the inclusion disks; the analysis
