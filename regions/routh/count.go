@@ -10,6 +10,8 @@
 //
 // Count is the fast path for grids: it allocates nothing and handles the
 // regular case, a degree drop being flagged and zero roots factored out.
+// FastCount returns exactly what Count returns, in less time where the
+// array is far from its zeros.
 // Analyze handles everything, including the two special cases: a zero
 // first-column entry in a non-zero row (the ε rule, with the limit ε → 0+
 // taken by carrying every entry as a truncated Laurent series in ε), and an
@@ -65,31 +67,11 @@ func WorkLen(n int) int { return 4 * (n/2 + 2) }
 // least WorkLen(len(p)-1)) as scratch. It does not allocate. When the
 // status is not Decided the counts are meaningless.
 func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
-	n := len(p) - 1
-	if n < 0 {
-		return 0, 0, Undecidable
+	q, lo, st := prepare(p)
+	if st != Decided || len(q) == 1 {
+		return 0, lo, st
 	}
-	// One sum tells whether every coefficient is finite (a NaN or an
-	// infinity makes it so) and whether any is non-zero.
-	total := 0.0
-	for _, v := range p {
-		total += math.Abs(v)
-	}
-	if !(total <= math.MaxFloat64) || total == 0 {
-		return 0, 0, Undecidable
-	}
-	if p[n] == 0 {
-		return 0, 0, NeedsAnalysis
-	}
-	lo := 0
-	for p[lo] == 0 {
-		lo++
-	}
-	q := p[lo:]
-	m := n - lo
-	if m == 0 {
-		return 0, lo, Decided
-	}
+	m := len(q) - 1
 	// Rows are stored as (value, error bound) pairs: a[2j], a[2j+1].
 	w := 2 * (m/2 + 2)
 	a, b := work[:w], work[w:2*w]
@@ -132,14 +114,16 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 		inv := 1 / b0
 		r := a[0] * inv
 		absR := math.Abs(r)
-		er := (a[1]+absR*eb0)*math.Abs(inv) + 2*unit*absR
+		er := ratioBound(a[1], absR, eb0, math.Abs(inv))
 		width := 2 * ((m-k-1)/2 + 1)
 		for j := 0; j < width; j += 2 {
 			x, ex := a[j+2], a[j+3]
 			y, ey := b[j+2], b[j+3]
-			ry := r * y
+			ry := float64(r * y)
 			d := x - ry
-			e := ex + absR*ey + math.Abs(y)*er + unit*(math.Abs(x)+2*math.Abs(ry))
+			// |fl(r·y)| = fl(|r|·|y|): rounding to nearest is symmetric.
+			absY := math.Abs(y)
+			e := entryBound(ex, absR, ey, absY, er, math.Abs(x), float64(absR*absY))
 			if math.Abs(d) <= e {
 				d = 0
 			}
@@ -156,11 +140,57 @@ func Count(p, work []float64) (rhp, zeroRoots int, st Status) {
 	return rhp, lo, Decided
 }
 
+// ratioBound bounds the error of r = a0·(1/b0) from the bounds ea0 and eb0
+// of a0 and b0, |r| and |1/b0|: the error carried in from a0 and b0, and
+// the rounding of the division and of the product.
+//
+// entryBound bounds the error of an entry x − r·y from the bounds ex, ey
+// and er of its operands, |r|, |y|, |x| and the computed |r·y|: the errors
+// carried in, and the rounding of the product and of the difference.
+//
+// Both round every operation on its own (the conversions forbid fused
+// multiply-adds), and both are sums and products of their non-negative
+// arguments, so under rounding to nearest they never decrease when an
+// argument grows. FastCount relies on that: passing upper bounds of the
+// arguments gives an upper bound of what Count computes.
+func ratioBound(ea0, absR, eb0, absInv float64) float64 {
+	return float64(float64(ea0+float64(absR*eb0))*absInv) + float64(2*unit*absR)
+}
+
+func entryBound(ex, absR, ey, absY, er, absX, absRY float64) float64 {
+	return float64(float64(ex+float64(absR*ey))+float64(absY*er)) +
+		float64(unit*(absX+float64(2*absRY)))
+}
+
+// prepare makes the checks that come before the array: q is p without its
+// roots at s = 0, lo how many there were, and a status other than Decided
+// (with lo zero) ends the count. Count and FastCount share it, so that
+// they reject exactly the same inputs.
+func prepare(p []float64) (q []float64, lo int, st Status) {
+	// One sum tells whether every coefficient is finite (a NaN or an
+	// infinity makes it so) and whether any is non-zero, p being empty
+	// included.
+	total := 0.0
+	for _, v := range p {
+		total += math.Abs(v)
+	}
+	if !(total <= math.MaxFloat64) || total == 0 {
+		return nil, 0, Undecidable
+	}
+	if p[len(p)-1] == 0 {
+		return nil, 0, NeedsAnalysis
+	}
+	for p[lo] == 0 {
+		lo++
+	}
+	return p[lo:], lo, Decided
+}
+
 // Hurwitz reports whether every root of p lies in the open left half
 // plane, with no root at s = 0 and no drop of degree: the fast count where
 // it decides, the full analysis where it does not. work is as for Count.
 func Hurwitz(p, work []float64) bool {
-	rhp, zeros, st := Count(p, work)
+	rhp, zeros, st := FastCount(p, work)
 	switch st {
 	case Decided:
 		return rhp == 0 && zeros == 0

@@ -12,9 +12,10 @@ import (
 // Test is the Routh sign array as a stability.Test, for continuous-time
 // loops without dead time: the characteristic function is the polynomial
 // Function.P and the boundary is the imaginary axis. Counts come from the
-// fast path Count where it certifies the array, from root inclusion
-// disks (Inclusion) where its error bound alone was too wide, and from
-// Analyze, with its special cases, where neither decides.
+// fast path FastCount (Count's answer, sooner) where it certifies the
+// array, from root inclusion disks (Inclusion) where its error bound
+// alone was too wide, and from Analyze, with its special cases, where
+// neither decides.
 type Test struct{}
 
 // Name implements stability.Test.
@@ -37,7 +38,7 @@ func (c *counter) Count(f stability.Function) stability.Verdict {
 	if need := WorkLen(len(p)); len(c.work) < need {
 		c.work = make([]float64, need)
 	}
-	rhp, zeros, st := Count(p, c.work)
+	rhp, zeros, st := FastCount(p, c.work)
 	switch st {
 	case Decided:
 		return stability.Verdict{Unstable: rhp, Boundary: zeros}
