@@ -3,9 +3,9 @@ package routh
 import "math"
 
 // countBefore is Count as it stood before FastCount was added, kept
-// word for word as the referee of the tests that FastCount, CountBatch
-// and the reorganised Count return exactly what it returned, on every
-// input.
+// word for word as the straightforward referee of the tests that
+// FastCount and the reorganised Count, whose bounds are formed in shared
+// functions, return exactly what it returned, on every input.
 func countBefore(p, work []float64) (rhp, zeroRoots int, st Status) {
 	n := len(p) - 1
 	if n < 0 {
