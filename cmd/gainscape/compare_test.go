@@ -278,3 +278,30 @@ func TestProbeResponse(t *testing.T) {
 		t.Error("a figure was written for an unstable design")
 	}
 }
+
+// TestCompareTableFlagsWindowEdge: a best point on the edge of its window
+// may have a better one outside it; the table says so for both searches.
+// On 1/(s+1)^4 under PI (invented window, far inside the stable region
+// that reaches kp = 4) both searches are pushed to ki's top edge.
+func TestCompareTableFlagsWindowEdge(t *testing.T) {
+	out, errs, code := runBinary(t, t.TempDir(), "compare", "--plant", "1/(s+1)^4", "--ctrl", "pi",
+		"--x", "kp=0:0.1", "--y", "ki=0:0.05", "--grid", "40x30", "-o", "", "--kd-range", "0:0")
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	// The PI row appears twice: in the load table, then in the other figures.
+	var rows []string
+	for _, line := range strings.Split(out, "\n") {
+		if strings.HasPrefix(line, "1 PI") {
+			rows = append(rows, line)
+		}
+	}
+	if len(rows) != 2 {
+		t.Fatalf("%d PI rows; want 2:\n%s", len(rows), out)
+	}
+	for k, what := range []string{"best load design", "best decay design"} {
+		if !strings.Contains(rows[k], "(on the window's edge)") {
+			t.Errorf("%s not flagged on the window's edge: %q", what, rows[k])
+		}
+	}
+}

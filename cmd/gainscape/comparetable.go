@@ -103,6 +103,8 @@ func tableRows(c *study.Comparison) []tableRow {
 		design := designText(p, d.Values)
 		if d.Failed != "" {
 			design = "none: " + d.Failed
+		} else if d.Warning != "" {
+			design += " (on the window's edge)"
 		}
 		r.more = []string{design, num(d.DecayRate), num(d.MinDamping), num(d.Ms), num(t.MinMs), ku, tu, fmt.Sprintf("%.1f%%", 100*t.StableShare)}
 		rows = append(rows, r)
@@ -113,6 +115,9 @@ func tableRows(c *study.Comparison) []tableRow {
 				row.load = []string{"none: " + og.Failed, "", "", "", "", "", "", ""}
 			} else {
 				row.load = []string{designText(p, og.Values, "kd"), num(og.Ms), num(og.GainMargin), num(og.PhaseMargin), num(og.IE), "", "", ""}
+				if og.Warning != "" {
+					row.load[0] += " (at an end of the kd range)"
+				}
 			}
 			rows = append(rows, row)
 		}
