@@ -133,19 +133,13 @@ func DecodeCompare(r io.Reader, name string) (Compare, error) {
 	if err := md.PrimitiveDecode(top.Schema, &checkSchema{}); err != nil {
 		return Compare{}, fromTOML(name, err, "")
 	}
-	for _, t := range []struct {
-		name string
-		prim toml.Primitive
-	}{{"loop", top.Loop}, {"compare", top.Compare}, {"output", top.Output}} {
-		if !md.IsDefined(t.name) {
-			continue
-		}
-		if typ := md.Type(t.name); typ != "Hash" && typ != "" {
-			return fail(t.name, "expected a table [%s], found %s", t.name, tomlType(typ))
-		}
-		if err := md.PrimitiveDecode(t.prim, bind[t.name]); err != nil {
-			return Compare{}, fromTOML(name, err, "")
-		}
+	tables := []table{
+		{"loop", top.Loop, bind["loop"]},
+		{"compare", top.Compare, bind["compare"]},
+		{"output", top.Output, bind["output"]},
+	}
+	if err := decodeTables(&md, name, tables); err != nil {
+		return Compare{}, err
 	}
 	if len(top.Panels) > maxPanels {
 		return fail("panels", "%d panels; a comparison draws at most %d", len(top.Panels), maxPanels)
@@ -184,14 +178,7 @@ func DecodeCompare(r io.Reader, name string) (Compare, error) {
 		return Compare{}, err
 	}
 	c.Origins = Origins{"": {File: name}, "schema": {File: name, Line: lineOf(&md, top.Schema)}}
-	for _, t := range []struct {
-		name string
-		prim toml.Primitive
-	}{{"loop", top.Loop}, {"compare", top.Compare}, {"output", top.Output}} {
-		if md.IsDefined(t.name) {
-			recordLines(c.Origins, &md, name, t.name, t.prim)
-		}
-	}
+	recordTables(c.Origins, &md, name, tables)
 	for i, prim := range top.Panels {
 		key := fmt.Sprintf("panels.%d", i+1)
 		p := &c.Panels[i]

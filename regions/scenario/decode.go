@@ -113,28 +113,15 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	if err := md.PrimitiveDecode(top.Schema, &checkSchema{}); err != nil {
 		return Scenario{}, fromTOML(name, err, "")
 	}
-	for _, t := range []struct {
-		name string
-		prim toml.Primitive
-		into any
-	}{
+	tables := []table{
 		{"loop", top.Loop, bind["loop"]},
 		{"axes", top.Axes, bind["axes"]},
 		{"fixed", top.Fixed, &fixed},
 		{"overlays", top.Overlays, bind["overlays"]},
 		{"output", top.Output, bind["output"]},
-	} {
-		if !md.IsDefined(t.name) {
-			continue
-		}
-		// A table made implicitly, by [overlays.x] or [[overlays.marks]]
-		// alone, has no type of its own.
-		if typ := md.Type(t.name); typ != "Hash" && typ != "" {
-			return fail(t.name, "expected a table [%s], found %s", t.name, tomlType(typ))
-		}
-		if err := md.PrimitiveDecode(t.prim, t.into); err != nil {
-			return Scenario{}, fromTOML(name, err, "")
-		}
+	}
+	if err := decodeTables(&md, name, tables); err != nil {
+		return Scenario{}, err
 	}
 	if err := unknownKeys(name, md.Undecoded(), bind, line); err != nil {
 		return Scenario{}, err
@@ -145,15 +132,45 @@ func Decode(r io.Reader, name string) (Scenario, error) {
 	s.Fixed = inFileOrder(fixed, md.Keys())
 	orderMarks(s.Overlays.Marks, markTables, md.Keys())
 	s.Origins = Origins{"": {File: name}, "schema": {File: name, Line: lineOf(&md, top.Schema)}}
-	for _, t := range []struct {
-		name string
-		prim toml.Primitive
-	}{{"loop", top.Loop}, {"axes", top.Axes}, {"fixed", top.Fixed}, {"overlays", top.Overlays}, {"output", top.Output}} {
-		if md.IsDefined(t.name) {
-			recordLines(s.Origins, &md, name, t.name, t.prim)
+	recordTables(s.Origins, &md, name, tables)
+	return s, nil
+}
+
+// table is one top-level table of a scenario file: its name, its
+// undecoded value and where it decodes to.
+type table struct {
+	name string
+	prim toml.Primitive
+	into any
+}
+
+// decodeTables decodes each table given in the file into its binding,
+// refusing a key of that name that is not a table.
+func decodeTables(md *toml.MetaData, file string, tables []table) error {
+	for _, t := range tables {
+		if !md.IsDefined(t.name) {
+			continue
+		}
+		// A table made implicitly, by [overlays.x] or [[overlays.marks]]
+		// alone, has no type of its own.
+		if typ := md.Type(t.name); typ != "Hash" && typ != "" {
+			return &Error{File: file, Key: t.name, Msg: fmt.Sprintf("expected a table [%s], found %s", t.name, tomlType(typ))}
+		}
+		if err := md.PrimitiveDecode(t.prim, t.into); err != nil {
+			return fromTOML(file, err, "")
 		}
 	}
-	return s, nil
+	return nil
+}
+
+// recordTables records in o the file and line of each key of the tables
+// given in the file.
+func recordTables(o Origins, md *toml.MetaData, file string, tables []table) {
+	for _, t := range tables {
+		if md.IsDefined(t.name) {
+			recordLines(o, md, file, t.name, t.prim)
+		}
+	}
 }
 
 // recordLines records in o the file and line of each key of the table.
